@@ -1,0 +1,8 @@
+/** Jest: ts-jest in Node; one test file per source file under test/, outside checks in test/reference. */
+module.exports = {
+  testEnvironment: 'node',
+  roots: ['<rootDir>/test'],
+  testMatch: ['**/*.test.ts'],
+  transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: 'tsconfig.json', isolatedModules: true }] },
+  testTimeout: 120000,
+};

@@ -1,0 +1,96 @@
+import { RemapError } from './errors';
+import type { FitContext, MapJSON, MethodName, TransportMap } from './map';
+import type { MethodSpec } from './method';
+import type { Sample } from './points';
+import { COMMON_SETTINGS, resolveSettings, type SettingSpec, type Settings } from './settings';
+import { checkSameColumns, checkSample } from './validate';
+
+/** Every method the product offers, in the order menus list them. */
+const METHODS: MethodSpec[] = [];
+
+/** Registers a method (called once per method in registry.ts). */
+export function registerMethod(spec: MethodSpec): void {
+  if (METHODS.some((m) => m.name === spec.name)) return;
+  METHODS.push(spec);
+}
+
+/** All registered methods. */
+export function listMethods(): readonly MethodSpec[] {
+  return METHODS;
+}
+
+/**
+ * The spec of method `name` (case-insensitive).
+ * @throws RemapError listing the known methods.
+ */
+export function getMethod(name: string): MethodSpec {
+  const key = String(name).trim().toLowerCase();
+  const m = METHODS.find((s) => s.name === key);
+  if (!m) throw new RemapError(`Unknown method "${name}". Known methods: ${METHODS.map((s) => s.name).join(', ')}.`);
+  return m;
+}
+
+/** The full list of settings a method takes (its own plus the common ones). */
+export function settingSpecs(method: MethodSpec): readonly SettingSpec[] {
+  const own = new Set(method.settings.map((s) => s.name));
+  return [...COMMON_SETTINGS.filter((s) => !own.has(s.name)), ...method.settings];
+}
+
+/** Validates samples and settings for `method`; returns the resolved settings. */
+export function prepareFit(method: MethodSpec, source: Sample, target: Sample, rawSettings: Readonly<Record<string, unknown>>): Settings {
+  const fn = `fit (${method.name})`;
+  checkSameColumns(source, target, fn);
+  if (source.d < 1) throw new RemapError(`${fn}: the source has no columns; select at least one column of numbers.`);
+  const min = method.minRows(source.d);
+  checkSample(source, 'source', min, fn);
+  checkSample(target, 'target', min, fn);
+  if (!method.weights && (source.weights || target.weights)) {
+    throw new RemapError(`${fn}: the ${method.name} method does not take row weights; leave the weights out or choose a method that takes them.`);
+  }
+  return resolveSettings(method.name, settingSpecs(method), rawSettings);
+}
+
+/**
+ * Fits a map with the named method. Validates everything first.
+ * @example await fitMap('quantile', sample([1, 2, 3]), sample([10, 20, 30])) // a quantile map
+ */
+export async function fitMap(
+  name: string,
+  source: Sample,
+  target: Sample,
+  rawSettings: Readonly<Record<string, unknown>> = {},
+  ctx: FitContext = {},
+): Promise<TransportMap> {
+  const method = getMethod(name);
+  const settings = prepareFit(method, source, target, rawSettings);
+  return await method.fit(source, target, settings, ctx);
+}
+
+/**
+ * Fits a map synchronously; for methods whose fit is synchronous (all but the
+ * trained ones). Used where the caller cannot wait (a synchronous spreadsheet engine).
+ * @throws RemapError if the method only fits asynchronously.
+ */
+export function fitMapSync(
+  name: string,
+  source: Sample,
+  target: Sample,
+  rawSettings: Readonly<Record<string, unknown>> = {},
+  ctx: FitContext = {},
+): TransportMap {
+  const method = getMethod(name);
+  const settings = prepareFit(method, source, target, rawSettings);
+  const r = method.fit(source, target, settings, ctx);
+  if (r instanceof Promise) {
+    r.then((m) => m.dispose(), () => undefined);
+    throw new RemapError(`The ${method.name} method trains in the background; use REMAP.FIT and apply its handle instead.`);
+  }
+  return r;
+}
+
+/** Restores a map from JSON already checked by `parseMapJSON`. */
+export function restoreMap(json: MapJSON): TransportMap {
+  return getMethod(json.method).fromJSON(json);
+}
+
+export type { MethodName };
