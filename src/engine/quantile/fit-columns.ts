@@ -1,0 +1,177 @@
+import { RemapError } from '../errors';
+import type { MapHeader } from '../base';
+import { sizeWarnings } from '../base';
+import type { CostReport, FitContext, FitRecord, MapJSON, MethodName, Warning } from '../map';
+import { columnOf, type Sample } from '../points';
+import type { Settings } from '../settings';
+import { isSortedAscending, sortWithOrder, sortWithWeights, type SortedWithOrder } from '../stats/sort';
+import { transportCosts1d } from '../stats/wasserstein-1d';
+import { weightedCdfSorted, type WeightedCdf } from '../stats/weighted-cdf';
+import type { ColumnMap, FittedSource } from './column-map';
+import type { Tails } from './one-way-map';
+import { OneColumnMap } from './one-column-map';
+
+/** How one of the column-by-column methods builds, checks and restores a column. */
+export interface ColumnRecipe {
+  readonly method: MethodName;
+  /** Builds the column map from the two merged CDFs. `where` starts error messages. */
+  build(src: WeightedCdf, tgt: WeightedCdf, where: string): ColumnMap;
+  /** Checks a raw column before fitting (e.g. whole numbers). */
+  check?(values: Float64Array, where: string): void;
+  /** Rebuilds a column from its saved params. */
+  restore(raw: unknown, where: string): ColumnMap;
+  /** Warn when source rows share values (they all map to one value)? */
+  readonly warnTies: boolean;
+}
+
+/**
+ * Fits every column on its own with `recipe` and assembles the map: header,
+ * size warnings, a 'marginals-only' warning for several columns, a 'ties'
+ * warning where the recipe asks, the exact 1-D cost per column (W2^2 and, for
+ * one column, W1, between the two empirical distributions), and the smallest
+ * slope of the fitted maps as the monotonicity certificate.
+ * Cost: O(d (n log n + m log m)).
+ * @param source,target validated samples with the same d (see `prepareFit`).
+ * @throws RemapError from the recipe (e.g. a side with one distinct value).
+ * @example fitOneColumnMap(recipe, sample([0, 1, 3]), sample([5, 6, 8]), { tails: 'clamp' }, {}).cost().w2Squared // 25
+ */
+export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sample, settings: Settings, ctx: FitContext): OneColumnMap {
+  const d = source.d;
+  const header: MapHeader = {
+    method: recipe.method,
+    d,
+    settings,
+    columns: ctx.columns ?? null,
+    n: { source: source.n, target: target.n },
+    dropped: ctx.dropped ?? { source: 0, target: 0 },
+  };
+  const columns: ColumnMap[] = [];
+  const w2: number[] = [];
+  let w1 = 0;
+  let minSlope = Infinity;
+  const tied: string[] = [];
+  for (let k = 0; k < d; k++) {
+    const where = `fit (${recipe.method})${d > 1 || ctx.columns ? `: ${columnName(ctx, k)}` : ''}`;
+    const src = columnCdf(recipe, source, k, `${where}: source`, d === 1);
+    const s = src.cdf;
+    const t = columnCdf(recipe, target, k, `${where}: target`, false).cdf;
+    const c = recipe.build(s, t, where);
+    columns.push(src.sorted ? { ...c, fittedSource: mapFittedSource(c, src.raw, src.sorted, tails(settings)) } : c);
+    const cost = transportCosts1d(s, t);
+    w2.push(cost.w2Squared);
+    if (d === 1) w1 = cost.w1;
+    const slope = c.forward.minSlope();
+    if (slope < minSlope) minSlope = slope;
+    if (recipe.warnTies && s.tiedRows > 0) tied.push(`${s.tiedRows} of ${s.rows} in ${columnName(ctx, k)}`);
+  }
+  const warnings: Warning[] = sizeWarnings(header);
+  if (d > 1) {
+    warnings.push({
+      code: 'marginals-only',
+      message: `The ${recipe.method} method maps each of the ${d} columns on its own: each column of the mapped source matches the target's column, but the dependence between columns (correlation, joint shape) is not matched.`,
+      action: 'If the relation between columns matters, use a joint method (linear, entropic, pairs or gradient-net).',
+    });
+  }
+  if (tied.length > 0) {
+    warnings.push({
+      code: 'ties',
+      message: `Some source rows share a value with other rows (${tied.join('; ')}); rows with the same value all map to one value, so the mapped column has fewer distinct values than the target.`,
+      action: 'If the values are whole-number scores, method ordinal spreads each score over its unit interval; otherwise this is expected.',
+    });
+  }
+  const total = w2.reduce((a, b) => a + b, 0);
+  const cost: CostReport =
+    d === 1
+      ? {
+          kind: 'exact-1d',
+          w2Squared: total,
+          w2: Math.sqrt(total),
+          w1,
+          note: 'Exact squared 2-Wasserstein distance (and W1) between the source and target samples, from their quantile functions.',
+        }
+      : {
+          kind: 'per-column-1d',
+          w2Squared: total,
+          w2: Math.sqrt(total),
+          perColumn: w2,
+          note: `Sum over the ${d} columns of the exact squared 2-Wasserstein distance between source and target columns; it ignores dependence between columns.`,
+        };
+  const fitted: FitRecord = { cost, minJacobianEigenvalue: minSlope, warnings };
+  return new OneColumnMap(header, fitted, columns);
+}
+
+/**
+ * Restores a map saved by a map of `recipe`'s method (envelope already
+ * checked), bit-identically. Cost: O(total knots).
+ * @throws RemapError if the saved params are damaged.
+ * @example restoreOneColumnMap(recipe, map.toJSON()).apply(x) // the same numbers as map.apply(x)
+ */
+export function restoreOneColumnMap(recipe: ColumnRecipe, json: MapJSON): OneColumnMap {
+  const where = `load (${recipe.method})`;
+  const params = json.params as { columns?: unknown } | null;
+  const saved = params && typeof params === 'object' ? params.columns : undefined;
+  if (!Array.isArray(saved) || saved.length !== json.d) {
+    throw new RemapError(`${where}: the saved map should hold ${json.d} fitted column${json.d === 1 ? '' : 's'} but does not; the saved map is damaged. Fit the map again.`);
+  }
+  const columns = saved.map((raw, k) => recipe.restore(raw, `${where}, column ${k + 1}`));
+  const header: MapHeader = {
+    method: recipe.method,
+    d: json.d,
+    settings: json.settings,
+    columns: json.columns,
+    n: json.n,
+    dropped: json.dropped,
+  };
+  return new OneColumnMap(header, json.fitted, columns);
+}
+
+function columnName(ctx: FitContext, k: number): string {
+  const name = ctx.columns?.[k];
+  return name ? `column "${name}"` : `column ${k + 1}`;
+}
+
+function tails(settings: Settings): Tails {
+  return settings.tails === 'linear' ? 'linear' : 'clamp';
+}
+
+interface ColumnSort {
+  readonly cdf: WeightedCdf;
+  /** The column as given (a copy), and its sort order, when asked to keep them. */
+  readonly raw: Float64Array;
+  readonly sorted: SortedWithOrder | null;
+}
+
+/**
+ * Copies column k once, runs the recipe's check, sorts (with weights) and
+ * merges ties. `keepOrder`: sort by index (a little slower than the plain
+ * typed sort) and keep the order, to map the fitted source without a search.
+ */
+function columnCdf(recipe: ColumnRecipe, s: Sample, k: number, where: string, keepOrder: boolean): ColumnSort {
+  const col = columnOf(s, k);
+  recipe.check?.(col, where);
+  if (keepOrder) {
+    const sorted = sortWithOrder(col);
+    let w: Float64Array | null = null;
+    if (s.weights) {
+      w = new Float64Array(col.length);
+      for (let i = 0; i < w.length; i++) w[i] = s.weights[sorted.order[i]];
+    }
+    return { cdf: weightedCdfSorted(sorted.sorted, w), raw: col, sorted };
+  }
+  if (s.weights === null) {
+    if (!isSortedAscending(col)) col.sort();
+    return { cdf: weightedCdfSorted(col, null), raw: col, sorted: null };
+  }
+  const sw = sortWithWeights(col, s.weights);
+  return { cdf: weightedCdfSorted(sw.values, sw.weights), raw: col, sorted: null };
+}
+
+/** Maps the sorted source rows by one merge walk and puts the results back in row order. O(n). */
+function mapFittedSource(c: ColumnMap, raw: Float64Array, s: SortedWithOrder, t: Tails): FittedSource {
+  const n = raw.length;
+  const walked = new Float64Array(n);
+  const outside = c.forward.evaluate(s.sorted, walked, t, null);
+  const mapped = new Float64Array(n);
+  for (let i = 0; i < n; i++) mapped[s.order[i]] = walked[i];
+  return { values: raw, mapped, outside };
+}

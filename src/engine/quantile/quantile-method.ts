@@ -1,0 +1,29 @@
+import type { MethodSpec } from '../method';
+import { fitOneColumnMap, restoreOneColumnMap, type ColumnRecipe } from './fit-columns';
+import { quantileColumn, quantileColumnFromParams } from './quantile-column';
+
+const recipe: ColumnRecipe = {
+  method: 'quantile',
+  build: quantileColumn,
+  restore: quantileColumnFromParams,
+  warnTies: true,
+};
+
+/**
+ * Method `quantile`: the continuous monotone map of each column, linear between
+ * matched quantiles (Hazen positions, ties merged; see `quantileColumn`).
+ * Takes row weights; at least 2 rows per sample and 2 distinct values per
+ * column. Several columns are matched each on its own (marginals only).
+ * Fit cost O(d (n log n + m log m)); apply O(n d) for large or sorted input.
+ * @example await fitMap('quantile', sample([1, 2, 3]), sample([10, 20, 40])) // apply([2]) gives [20]
+ */
+export const quantileMethod: MethodSpec = {
+  name: 'quantile',
+  summary: 'Continuous monotone map of each column: matches quantiles and interpolates linearly between them.',
+  shape: 'one-column',
+  settings: [],
+  minRows: () => 2,
+  weights: true,
+  fit: (source, target, settings, ctx) => fitOneColumnMap(recipe, source, target, settings, ctx),
+  fromJSON: (json) => restoreOneColumnMap(recipe, json),
+};
