@@ -5,4 +5,5 @@ module.exports = {
   testMatch: ['**/*.test.ts'],
   transform: { '^.+\\.ts$': ['ts-jest', { tsconfig: 'tsconfig.json' }] },
   testTimeout: 120000,
+  reporters: ['default', '<rootDir>/test/summary-reporter.js'],
 };

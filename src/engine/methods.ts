@@ -67,6 +67,22 @@ export async function fitMap(
 }
 
 /**
+ * Starts a fit: validates, then returns the map at once for methods that fit
+ * synchronously, or a Promise for those that train in the background.
+ */
+export function startFit(
+  name: string,
+  source: Sample,
+  target: Sample,
+  rawSettings: Readonly<Record<string, unknown>> = {},
+  ctx: FitContext = {},
+): TransportMap | Promise<TransportMap> {
+  const method = getMethod(name);
+  const settings = prepareFit(method, source, target, rawSettings);
+  return method.fit(source, target, settings, ctx);
+}
+
+/**
  * Fits a map synchronously; for methods whose fit is synchronous (all but the
  * trained ones). Used where the caller cannot wait (a synchronous spreadsheet engine).
  * @throws RemapError if the method only fits asynchronously.

@@ -75,6 +75,7 @@ function orient(rows: CellIn[][]): CellIn[][] {
 }
 
 function describeCell(v: CellIn): string {
+  if (cellKind(v) === 'blank') return 'a blank';
   if (typeof v === 'number') return String(v);
   if (typeof v === 'string') return `"${v.length > 30 ? v.slice(0, 30) + '...' : v}"`;
   return String(v);
@@ -307,7 +308,7 @@ export function readNumbers(cells: CellIn, name: string, fn: string): { rows: nu
     for (let j = 0; j < nc; j++) {
       const v = rows[i][j];
       if (cellKind(v) !== 'number') {
-        throw new RemapError(`${fn}: ${name} has ${describeCell(v) || 'a blank'} in row ${i + 1}, column ${j + 1}; every cell of ${name} must be a finite number.`);
+        throw new RemapError(`${fn}: ${name} has ${describeCell(v)} in row ${i + 1}, column ${j + 1}; every cell of ${name} must be a finite number.`);
       }
       data[i * nc + j] = v as number;
     }
@@ -332,7 +333,7 @@ export function isOmitted(v: CellIn): boolean {
 export function readText(v: CellIn, name: string, fn: string, fallback: string): string {
   if (isOmitted(v)) return fallback;
   const cell = Array.isArray(v) ? asRows(v)[0][0] : v;
-  if (typeof cell !== 'string') throw new RemapError(`${fn}: ${name} must be text, e.g. "${fallback}", not ${describeCell(cell)}.`);
+  if (typeof cell !== 'string') throw new RemapError(`${fn}: ${name} must be text, e.g. "${fallback || 'auto'}", not ${describeCell(cell)}.`);
   return cell.trim().toLowerCase();
 }
 

@@ -2,7 +2,7 @@ import { CellError } from '../../src/functions/cells';
 import { asRows, isOmitted, readNumbers, readSample, readSettings, readText, readValues, writeValues } from '../../src/functions/coerce';
 
 const fn = 'REMAP.TEST';
-const deepFreeze = <T>(rows: T[][]): T[][] => Object.freeze(rows.map((r) => Object.freeze(r))) as T[][];
+const deepFreeze = (rows: unknown[][]): unknown[][] => Object.freeze(rows.map((r) => Object.freeze(r))) as unknown[][];
 
 describe('readSample: the input rules of the README', () => {
   test('one column skips blanks, text, logicals and error values one cell at a time and counts them', () => {

@@ -1,0 +1,313 @@
+import { RemapError, isRemapError } from '../engine/errors';
+import { chooseMethod } from '../engine/auto';
+import type { TransportMap } from '../engine/map';
+import { parseMapJSON } from '../engine/map-json';
+import { getMethod, listMethods, restoreMap, startFit } from '../engine/methods';
+import { parseSettingsText } from '../engine/settings';
+import '../engine/registry';
+import type { CellIn } from '../functions/cells';
+import { readSample, readValues, writeValues, type ReadSample } from '../functions/coerce';
+import { csvCell, formatCSV, parseCSV } from './csv';
+
+/**
+ * The `remap` command: CSV in, CSV or JSON out, through the same coercion
+ * module and engine as the worksheet functions. `main` returns the exit code so
+ * tests can run it in-process; bin/remap.js calls it for the shell.
+ * Exit codes: 0 done, 1 bad input or data (one line on stderr), 2 bad usage.
+ */
+
+export interface CliIO {
+  readonly stdout: (s: string) => void;
+  readonly stderr: (s: string) => void;
+  readonly readFile: (path: string) => string;
+  readonly writeFile: (path: string, text: string) => void;
+}
+
+class UsageError extends Error {}
+
+const COMMANDS: Record<string, { flags: string[]; summary: string }> = {
+  fit: {
+    flags: ['source', 'target', 'method', 'columns', 'source-weights', 'target-weights', 'settings', 'seed', 'tails', 'out'],
+    summary: 'remap fit --source S.csv --target T.csv [--method M] [--columns a,b] [--source-weights COL] [--target-weights COL] [--settings "k=v; ..."] [--seed N] [--tails clamp|linear] --out model.json',
+  },
+  apply: { flags: ['model', 'input', 'out'], summary: 'remap apply --model model.json --input X.csv [--out Y.csv]' },
+  invert: { flags: ['model', 'input', 'out'], summary: 'remap invert --model model.json --input Y.csv [--out X.csv]' },
+  cost: {
+    flags: ['source', 'target', 'method', 'columns', 'source-weights', 'target-weights', 'settings', 'seed', 'tails'],
+    summary: 'remap cost --source S.csv --target T.csv [--method M] [same column, weight and settings options as fit]',
+  },
+  report: { flags: ['model'], summary: 'remap report --model model.json' },
+  methods: { flags: [], summary: 'remap methods' },
+};
+
+function usage(): string {
+  return [
+    'remap: fit a monotone transport map from a source sample to a target sample, apply it, and report its cost.',
+    '',
+    ...Object.values(COMMANDS).map((c) => '  ' + c.summary),
+    '',
+    `Methods: ${listMethods().map((m) => m.name).join(', ')}, auto.`,
+    'CSV files have a header row; all numeric columns are used unless --columns picks some.',
+  ].join('\n');
+}
+
+function parseArgs(argv: readonly string[]): { command: string; flags: Record<string, string> } {
+  const [command, ...rest] = argv;
+  if (!command || command === '--help' || command === '-h' || command === 'help') throw new UsageError('');
+  const spec = COMMANDS[command];
+  if (!spec) throw new UsageError(`unknown command "${command}"; the commands are ${Object.keys(COMMANDS).join(', ')}.`);
+  const flags: Record<string, string> = Object.create(null);
+  for (let i = 0; i < rest.length; i++) {
+    const a = rest[i];
+    if (!a.startsWith('--')) throw new UsageError(`unexpected "${a}"; options look like --name value.`);
+    const eq = a.indexOf('=');
+    const name = eq > 0 ? a.slice(2, eq) : a.slice(2);
+    if (!spec.flags.includes(name)) {
+      throw new UsageError(`${command} has no option --${name}; its options are ${spec.flags.map((f) => '--' + f).join(', ') || '(none)'}.`);
+    }
+    let value: string;
+    if (eq > 0) value = a.slice(eq + 1);
+    else {
+      if (i + 1 >= rest.length || rest[i + 1].startsWith('--')) throw new UsageError(`--${name} needs a value.`);
+      value = rest[++i];
+    }
+    if (name in flags) throw new UsageError(`--${name} is given twice.`);
+    flags[name] = value;
+  }
+  return { command, flags };
+}
+
+function need(flags: Record<string, string>, name: string, command: string): string {
+  const v = flags[name];
+  if (v === undefined || v === '') throw new UsageError(`${command} needs --${name}; usage: ${COMMANDS[command].summary}`);
+  return v;
+}
+
+/** A CSV file read as a header and rows of cells. */
+interface Table {
+  readonly name: string;
+  readonly header: string[];
+  readonly rows: CellIn[][];
+}
+
+function readTable(io: CliIO, path: string): Table {
+  let text: string;
+  try {
+    text = io.readFile(path);
+  } catch (e) {
+    throw new RemapError(`cannot read ${path} (${(e as NodeJS.ErrnoException).code ?? (e as Error).message}); check the path.`);
+  }
+  const rows = parseCSV(text, path);
+  if (rows.length === 0) throw new RemapError(`${path} is empty; it needs a header row and rows of numbers.`);
+  const header = rows[0].map((h) => h.trim());
+  const seen = new Set<string>();
+  for (const h of header) {
+    if (seen.has(h)) throw new RemapError(`${path}: the column name "${h}" appears twice in the header; give each column its own name.`);
+    seen.add(h);
+  }
+  return { name: path, header, rows: rows.slice(1).map((r) => r.map(csvCell)) };
+}
+
+function columnIndex(t: Table, col: string, what: string): number {
+  const k = t.header.indexOf(col.trim());
+  if (k < 0) throw new RemapError(`${t.name} has no column "${col}" (${what}); its columns are ${t.header.join(', ')}.`);
+  return k;
+}
+
+/** The data columns: those named by --columns, else every column holding numbers and no text (weights excluded). */
+function dataColumns(t: Table, columns: string | undefined, exclude: number[]): number[] {
+  if (columns !== undefined) {
+    const picked = columns.split(',').map((c) => c.trim()).filter((c) => c !== '');
+    if (picked.length === 0) throw new RemapError('--columns names no column; give names separated by commas.');
+    return picked.map((c) => columnIndex(t, c, '--columns'));
+  }
+  const out: number[] = [];
+  for (let k = 0; k < t.header.length; k++) {
+    if (exclude.includes(k)) continue;
+    let numbers = 0;
+    let text = 0;
+    for (const r of t.rows) {
+      const v = r[k];
+      if (typeof v === 'number') numbers++;
+      else if (typeof v === 'string') text++;
+    }
+    if (numbers > 0 && text === 0) out.push(k);
+  }
+  if (out.length === 0) throw new RemapError(`${t.name} has no column of numbers; pick columns with --columns.`);
+  return out;
+}
+
+function readSide(io: CliIO, path: string, name: 'source' | 'target', flags: Record<string, string>, fn: string): ReadSample & { header: string[] } {
+  const t = readTable(io, path);
+  const wFlag = flags[`${name}-weights`];
+  const wk = wFlag !== undefined ? columnIndex(t, wFlag, `--${name}-weights`) : -1;
+  const cols = dataColumns(t, flags.columns, wk >= 0 ? [wk] : []);
+  const cells = t.rows.map((r) => cols.map((k) => r[k]));
+  const weights = wk >= 0 ? t.rows.map((r) => [r[wk]]) : null;
+  if (cells.length === 0) throw new RemapError(`${path} has a header but no rows; add rows of numbers.`);
+  const read = readSample(cells, { name, fn, weights, weightsName: `${name} weights (${wFlag})` });
+  return { ...read, columns: cols.map((k) => t.header[k]), header: t.header };
+}
+
+function settingsFrom(flags: Record<string, string>): Record<string, unknown> {
+  const out: Record<string, unknown> = flags.settings ? parseSettingsText(flags.settings) : Object.create(null);
+  if (flags.seed !== undefined) out.seed = flags.seed;
+  if (flags.tails !== undefined) out.tails = flags.tails;
+  return out;
+}
+
+async function fitFromFlags(io: CliIO, flags: Record<string, string>, command: string): Promise<{ map: TransportMap; reason: string | null }> {
+  const fn = `remap ${command}`;
+  const s = readSide(io, need(flags, 'source', command), 'source', flags, fn);
+  const t = readSide(io, need(flags, 'target', command), 'target', flags, fn);
+  if (s.columns!.join('\u0000') !== t.columns!.join('\u0000')) {
+    throw new RemapError(`the source columns (${s.columns!.join(', ')}) and target columns (${t.columns!.join(', ')}) differ; give both files the same column names, or pick them with --columns.`);
+  }
+  const settings = settingsFrom(flags);
+  let method = (flags.method ?? '').trim().toLowerCase();
+  let reason: string | null = null;
+  if (method === '' || method === 'auto') {
+    const c = chooseMethod(s.sample, t.sample, settings, method === 'auto');
+    method = c.method;
+    reason = c.reason;
+  }
+  getMethod(method);
+  let lastReport = 0;
+  const map = await startFit(method, s.sample, t.sample, settings, {
+    dropped: { source: s.dropped, target: t.dropped },
+    columns: s.columns,
+    onProgress: (p) => {
+      const now = Date.now();
+      if (now - lastReport > 2000) {
+        lastReport = now;
+        io.stderr(`remap: ${method} step ${p.step}/${p.of}, loss ${p.loss.toPrecision(4)}\n`);
+      }
+    },
+  });
+  return { map, reason };
+}
+
+function loadModel(io: CliIO, path: string): TransportMap {
+  let text: string;
+  try {
+    text = io.readFile(path);
+  } catch (e) {
+    throw new RemapError(`cannot read ${path} (${(e as NodeJS.ErrnoException).code ?? (e as Error).message}); check the path.`);
+  }
+  return restoreMap(parseMapJSON(text));
+}
+
+/** Maps the columns of an input CSV the model knows, passing other columns through unchanged. */
+function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'invert'): void {
+  const map = loadModel(io, need(flags, 'model', command));
+  const inputPath = need(flags, 'input', command);
+  const t = readTable(io, inputPath);
+  const names = map.diagnostics().columns;
+  let cols: number[];
+  if (names && names.every((c) => t.header.includes(c))) cols = names.map((c) => t.header.indexOf(c));
+  else if (t.header.length === map.d) cols = t.header.map((_, k) => k);
+  else {
+    throw new RemapError(`${inputPath} has columns ${t.header.join(', ')}, but the map takes ${map.d} column${map.d === 1 ? '' : 's'}${names ? ` named ${names.join(', ')}` : ''}; give those columns.`);
+  }
+  const cells = t.rows.map((r) => cols.map((k) => r[k]));
+  for (let i = 0; i < cells.length; i++) {
+    for (let j = 0; j < cols.length; j++) {
+      const v = cells[i][j];
+      if (typeof v === 'string') throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: "${v}" is not a number; only numbers (or blanks) can be mapped.`);
+      if (typeof v === 'number' && !Number.isFinite(v)) throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: ${v} is not a finite number.`);
+    }
+  }
+  const fn = `remap ${command}`;
+  const { points, layout } = readValues(cells, map.d, fn);
+  const mapped = command === 'apply' ? map.apply(points) : map.invert(points);
+  const grid = writeValues(mapped, layout);
+  const out: (string | number | null)[][] = [t.header];
+  for (let i = 0; i < t.rows.length; i++) {
+    const row = t.rows[i].map((v) => (v === null ? null : (v as string | number)));
+    for (let j = 0; j < cols.length; j++) {
+      const g = grid[i][j];
+      row[cols[j]] = typeof g === 'number' ? g : g === '' ? null : row[cols[j]];
+    }
+    out.push(row);
+  }
+  const csv = formatCSV(out);
+  if (flags.out) io.writeFile(flags.out, csv);
+  else io.stdout(csv);
+  if (mapped.outside > 0) {
+    io.stderr(`remap: warning: ${mapped.outside} of ${mapped.n} rows lay outside the range the map was fitted on; their values are extrapolated (${String(map.diagnostics().settings.tails ?? 'clamp')}).\n`);
+  }
+}
+
+/** Runs one command; returns the process exit code. */
+export async function main(argv: readonly string[], io: CliIO): Promise<number> {
+  let command = '';
+  try {
+    const parsed = parseArgs(argv);
+    command = parsed.command;
+    const flags = parsed.flags;
+    switch (command) {
+      case 'fit': {
+        const out = need(flags, 'out', 'fit');
+        const { map, reason } = await fitFromFlags(io, flags, 'fit');
+        io.writeFile(out, JSON.stringify(map.toJSON()));
+        const diag = map.diagnostics();
+        io.stderr(`remap: fitted ${diag.method} on ${diag.n.source} x ${diag.n.target} rows, ${diag.d} column${diag.d === 1 ? '' : 's'}; squared W2 ${diag.cost.w2Squared.toPrecision(6)}; wrote ${out}.\n`);
+        if (reason) io.stderr(`remap: method chosen: ${reason}\n`);
+        for (const w of diag.warnings) io.stderr(`remap: warning: ${w.message} ${w.action}\n`);
+        map.dispose();
+        return 0;
+      }
+      case 'apply':
+      case 'invert':
+        mapFile(io, flags, command);
+        return 0;
+      case 'cost': {
+        const { map, reason } = await fitFromFlags(io, flags, 'cost');
+        const c = map.cost();
+        const diag = map.diagnostics();
+        const result: Record<string, unknown> = {
+          method: diag.method,
+          w2_squared: c.w2Squared,
+          w2: c.w2,
+          ...(c.w1 !== undefined ? { w1: c.w1 } : {}),
+          ...(c.perColumn ? { per_column_w2_squared: c.perColumn } : {}),
+          kind: c.kind,
+          note: c.note,
+          n_source: diag.n.source,
+          n_target: diag.n.target,
+          d: diag.d,
+          ...(reason ? { method_reason: reason } : {}),
+          warnings: diag.warnings.map((w) => w.message),
+        };
+        io.stdout(JSON.stringify(result, null, 2) + '\n');
+        map.dispose();
+        return 0;
+      }
+      case 'report': {
+        const map = loadModel(io, need(flags, 'model', 'report'));
+        io.stdout(JSON.stringify(map.diagnostics(), null, 2) + '\n');
+        return 0;
+      }
+      case 'methods': {
+        for (const m of listMethods()) io.stdout(`${m.name.padEnd(13)} ${m.summary}\n`);
+        return 0;
+      }
+    }
+    throw new UsageError(`unknown command "${command}"`);
+  } catch (e) {
+    if (e instanceof UsageError) {
+      if (e.message) {
+        io.stderr(`remap: ${e.message}\n`);
+        return 2;
+      }
+      io.stdout(usage() + '\n');
+      return argv.length === 0 ? 2 : 0;
+    }
+    if (isRemapError(e)) {
+      io.stderr(`remap: ${e.message}\n`);
+      return 1;
+    }
+    io.stderr(`remap: unexpected problem${command ? ` in ${command}` : ''}: ${(e as Error)?.message ?? String(e)}\n`);
+    return 1;
+  }
+}

@@ -1,0 +1,106 @@
+/* Worksheet functions of the REMAP namespace. Each is JSDoc for Excel's formula
+ * tooltips (functions.json is generated from it) and one guarded call into
+ * calls.ts; no numeric logic lives here. */
+import * as calls from './calls';
+import { guard } from './excel-errors';
+
+/**
+ * Maps values from the source's distribution onto the target's (monotone transport map), spilled in the shape of values.
+ * @customfunction VALUES
+ * @param values Cells to map: any shape for one column; one row per point for several columns.
+ * @param source The source sample: one column, or several columns with one row per observation.
+ * @param target The target sample, with the same columns as the source.
+ * @param [method] "quantile" (default for one column), "step", "ordinal", "linear" (default for several columns), "entropic", "gradient-net" or "auto".
+ * @param [source_weights] One non-negative weight per source row (e.g. survey weights).
+ * @param [target_weights] One non-negative weight per target row.
+ * @param [settings] Settings as text, e.g. "tails=linear; seed=7", or a two-column range of names and values.
+ * @returns The mapped values.
+ */
+export function values(values: any[][], source: any[][], target: any[][], method?: any, source_weights?: any[][], target_weights?: any[][], settings?: any): any[][] {
+  return guard(() => calls.values(values, source, target, method, source_weights, target_weights, settings)) as unknown as any[][];
+}
+
+/**
+ * Squared 2-Wasserstein cost of moving the source distribution onto the target (exact for one column).
+ * @customfunction COST
+ * @param source The source sample.
+ * @param target The target sample, with the same columns.
+ * @param [method] How to estimate it: "quantile" (exact, one column), "linear" (Gaussian closed form), "pairs", "entropic", "gradient-net".
+ * @param [source_weights] One non-negative weight per source row.
+ * @param [target_weights] One non-negative weight per target row.
+ * @param [settings] Settings as text or a two-column range.
+ * @returns The squared W2 estimate.
+ */
+export function cost(source: any[][], target: any[][], method?: any, source_weights?: any[][], target_weights?: any[][], settings?: any): number {
+  return guard(() => calls.cost(source, target, method, source_weights, target_weights, settings)) as unknown as number;
+}
+
+/**
+ * Squared 2-Wasserstein distance between two Gaussians, in closed form (Bures).
+ * @customfunction GAUSSCOST
+ * @param mean1 Mean vector of the first Gaussian (a row or a column).
+ * @param cov1 Covariance matrix of the first Gaussian (square, symmetric).
+ * @param mean2 Mean vector of the second Gaussian.
+ * @param cov2 Covariance matrix of the second Gaussian.
+ * @returns The squared W2 distance.
+ */
+export function gausscost(mean1: any[][], cov1: any[][], mean2: any[][], cov2: any[][]): number {
+  return guard(() => calls.gaussCost(mean1, cov1, mean2, cov2)) as unknown as number;
+}
+
+/**
+ * Fits a monotone transport map from source to target and returns its handle, for REMAP.APPLY, REMAP.INVERT and REMAP.REPORT.
+ * @customfunction FIT
+ * @param source The source sample.
+ * @param target The target sample, with the same columns.
+ * @param [method] "quantile", "step", "ordinal", "linear", "pairs", "entropic", "gradient-net" or "auto".
+ * @param [settings] Settings as text, e.g. "seed=7; eps=0.05", or a two-column range of names and values.
+ * @param [source_weights] One non-negative weight per source row.
+ * @param [target_weights] One non-negative weight per target row.
+ * @returns A handle naming the fitted map.
+ */
+export function fit(source: any[][], target: any[][], method?: any, settings?: any, source_weights?: any[][], target_weights?: any[][]): string {
+  return guard(() => calls.fit(source, target, method, settings, source_weights, target_weights)) as unknown as string;
+}
+
+/**
+ * Applies a fitted map to values.
+ * @customfunction APPLY
+ * @param model The cell holding REMAP.FIT's handle, or REMAP.SAVE's JSON text.
+ * @param values Cells to map (one row per point for several columns).
+ * @returns The mapped values.
+ */
+export function apply(model: any, values: any[][]): any[][] {
+  return guard(() => calls.apply(model, values)) as unknown as any[][];
+}
+
+/**
+ * Applies the inverse of a fitted map: from the target's distribution back to the source's.
+ * @customfunction INVERT
+ * @param model The cell holding REMAP.FIT's handle, or REMAP.SAVE's JSON text.
+ * @param values Cells to map back.
+ * @returns The values mapped back.
+ */
+export function invert(model: any, values: any[][]): any[][] {
+  return guard(() => calls.invert(model, values)) as unknown as any[][];
+}
+
+/**
+ * A fitted map's diagnostics: cost, fit quality, convergence, settings and warnings, as a two-column table.
+ * @customfunction REPORT
+ * @param model The cell holding REMAP.FIT's handle, or REMAP.SAVE's JSON text.
+ * @returns Labels and values.
+ */
+export function report(model: any): any[][] {
+  return guard(() => calls.report(model)) as unknown as any[][];
+}
+
+/**
+ * A fitted map as JSON text, to keep in a cell, a file or send to a colleague; REMAP.LOAD restores it.
+ * @customfunction SAVE
+ * @param model The cell holding REMAP.FIT's handle.
+ * @returns The map's JSON text.
+ */
+export function save(model: any): string {
+  return guard(() => calls.save(model)) as unknown as string;
+}

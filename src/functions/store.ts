@@ -1,0 +1,152 @@
+import { RemapError } from '../engine/errors';
+import type { TransportMap } from '../engine/map';
+import { parseMapJSON } from '../engine/map-json';
+import { restoreMap } from '../engine/methods';
+
+/**
+ * Fitted maps by handle, for this session. A handle is text derived from the
+ * method, the data and the settings ("remap:linear:5000x3:0f3a2c1b9d4e77"), so a
+ * recalculation with unchanged inputs finds the map it already has instead of
+ * fitting again. Maps may also be kept outside the session (the workbook, in the
+ * add-in): a `Keeper` set by the host is asked for a handle this session lacks.
+ */
+
+export interface Keeper {
+  /** The map's JSON text for `handle`, or null if none is kept. */
+  load(handle: string): string | null | Promise<string | null>;
+  /** Keeps `json` under `handle` (may be asynchronous; failures are reported, not thrown). */
+  save(handle: string, json: string): void | Promise<void>;
+}
+
+const MAX_MAPS = 64;
+const maps = new Map<string, TransportMap>();
+const inflight = new Map<string, Promise<TransportMap>>();
+let keeper: Keeper | null = null;
+
+/** Sets (or clears) where maps are kept beyond this session. */
+export function setKeeper(k: Keeper | null): void {
+  keeper = k;
+}
+
+/** Builds a handle from its parts. */
+export function makeHandle(method: string, n: number, d: number, hash: string): string {
+  return `remap:${method}:${n}x${d}:${hash}`;
+}
+
+/** True when text looks like a handle this product writes. */
+export function isHandle(text: string): boolean {
+  return /^remap:[a-z-]+:\d+x\d+:[0-9a-f]+$/.test(text.trim());
+}
+
+/** Remembers a fitted map under its handle (most recently used last; the oldest is dropped past 64). */
+export function remember(handle: string, map: TransportMap): void {
+  if (maps.has(handle)) maps.delete(handle);
+  maps.set(handle, map);
+  while (maps.size > MAX_MAPS) {
+    const oldest = maps.keys().next().value as string;
+    maps.get(oldest)?.dispose();
+    maps.delete(oldest);
+  }
+}
+
+/** The map for `handle` if this session has it. */
+export function recall(handle: string): TransportMap | undefined {
+  const m = maps.get(handle);
+  if (m) {
+    maps.delete(handle);
+    maps.set(handle, m);
+  }
+  return m;
+}
+
+/** Forgets a map (and disposes it). */
+export function forget(handle: string): void {
+  maps.get(handle)?.dispose();
+  maps.delete(handle);
+}
+
+/** Forgets every map (tests, and the pane's "clear"). */
+export function forgetAll(): void {
+  for (const m of maps.values()) m.dispose();
+  maps.clear();
+  inflight.clear();
+}
+
+/**
+ * Returns the map for `handle`, fitting it with `fit` only if neither this
+ * session nor the keeper has it; concurrent requests for one handle share one fit.
+ */
+export function recallOrFit(handle: string, fit: () => TransportMap | Promise<TransportMap>): TransportMap | Promise<TransportMap> {
+  const known = recall(handle);
+  if (known) return known;
+  const running = inflight.get(handle);
+  if (running) return running;
+  const kept = keeper ? keeper.load(handle) : null;
+  const finish = (json: string | null): TransportMap | Promise<TransportMap> => {
+    if (json) {
+      const m = restoreMap(parseMapJSON(json));
+      remember(handle, m);
+      return m;
+    }
+    const r = fit();
+    if (!(r instanceof Promise)) {
+      store(handle, r);
+      return r;
+    }
+    const p = r.then(
+      (m) => {
+        inflight.delete(handle);
+        store(handle, m);
+        return m;
+      },
+      (e) => {
+        inflight.delete(handle);
+        throw e;
+      },
+    );
+    inflight.set(handle, p);
+    return p;
+  };
+  return kept instanceof Promise ? kept.then(finish) : finish(kept);
+}
+
+function store(handle: string, m: TransportMap): void {
+  remember(handle, m);
+  if (keeper) {
+    try {
+      const r = keeper.save(handle, JSON.stringify(m.toJSON()));
+      if (r instanceof Promise) r.catch(() => undefined);
+    } catch {
+      /* keeping is best effort: the map still works in this session */
+    }
+  }
+}
+
+/**
+ * Finds the map a formula names: a handle (this session, then the keeper) or the
+ * JSON text REMAP.SAVE wrote.
+ * @throws RemapError (#N/A) when the handle is unknown.
+ */
+export function resolveMap(model: string, fn: string): TransportMap | Promise<TransportMap> {
+  const text = String(model ?? '').trim();
+  if (text.startsWith('{')) return restoreMap(parseMapJSON(text));
+  if (!isHandle(text)) {
+    throw new RemapError(`${fn}: "${text.slice(0, 60)}" is not a map; give the cell holding REMAP.FIT's result or REMAP.SAVE's JSON text.`);
+  }
+  const m = recall(text);
+  if (m) return m;
+  const running = inflight.get(text);
+  if (running) return running;
+  const missing = (): never => {
+    throw new RemapError(`${fn}: no map with handle ${text} is open; recalculate the REMAP.FIT cell that made it, or load its saved JSON with REMAP.LOAD.`, 'na');
+  };
+  if (!keeper) return missing();
+  const kept = keeper.load(text);
+  const finish = (json: string | null): TransportMap => {
+    if (!json) return missing();
+    const restored = restoreMap(parseMapJSON(json));
+    remember(text, restored);
+    return restored;
+  };
+  return kept instanceof Promise ? kept.then(finish) : finish(kept);
+}

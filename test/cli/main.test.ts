@@ -1,0 +1,99 @@
+import { execFileSync, spawnSync } from 'child_process';
+import * as path from 'path';
+import { main, type CliIO } from '../../src/cli/main';
+
+/** Runs the CLI in-process over an in-memory file system. */
+async function run(argv: string[], files: Record<string, string>) {
+  let out = '';
+  let err = '';
+  const io: CliIO = {
+    stdout: (s) => (out += s),
+    stderr: (s) => (err += s),
+    readFile: (p) => {
+      if (!(p in files)) throw Object.assign(new Error('missing'), { code: 'ENOENT' });
+      return files[p];
+    },
+    writeFile: (p, t) => (files[p] = t),
+  };
+  const code = await main(argv, io);
+  return { code, out, err, files };
+}
+
+const S = 'id,x,w\na,3,1\nb,1,1\nc,2,2\n';
+const T = 'id,x,w\na,30,1\nb,10,1\nc,20,1\n';
+
+describe('remap command line', () => {
+  test('fit writes map JSON; apply maps the model\'s columns and passes others through, same header', async () => {
+    const files: Record<string, string> = { 's.csv': S, 't.csv': T };
+    const fit = await run(['fit', '--source', 's.csv', '--target', 't.csv', '--columns', 'x', '--out', 'm.json'], files);
+    expect(fit.code).toBe(0);
+    expect(JSON.parse(files['m.json']).method).toBe('quantile');
+    const apply = await run(['apply', '--model', 'm.json', '--input', 's.csv'], files);
+    expect(apply.code).toBe(0);
+    // Source: equal sizes map to the sorted matching (fact of the trade)
+    expect(apply.out).toBe('id,x,w\na,30,1\nb,10,1\nc,20,2\n');
+    const inv = await run(['invert', '--model', 'm.json', '--input', 't.csv', '--out', 'back.csv'], files);
+    expect(inv.code).toBe(0);
+    expect(files['back.csv']).toBe('id,x,w\na,3,1\nb,1,1\nc,2,1\n');
+  });
+
+  test('cost prints JSON with method, w2_squared and w2', async () => {
+    const r = await run(['cost', '--source', 's.csv', '--target', 't.csv', '--columns', 'x'], { 's.csv': S, 't.csv': T });
+    expect(r.code).toBe(0);
+    const j = JSON.parse(r.out);
+    // Source: sorted matching (1,2,3) -> (10,20,30): mean of 9^2, 18^2, 27^2 = (81 + 324 + 729) / 3 = 378
+    expect(j.method).toBe('quantile');
+    expect(j.w2_squared).toBeCloseTo(378, 10);
+    expect(j.w2).toBeCloseTo(Math.sqrt(378), 10);
+  });
+
+  test('weights come from a named column and change the result', async () => {
+    const files = { 's.csv': S, 't.csv': T };
+    const plain = JSON.parse((await run(['cost', '--source', 's.csv', '--target', 't.csv', '--columns', 'x'], files)).out);
+    const weighted = JSON.parse((await run(['cost', '--source', 's.csv', '--target', 't.csv', '--columns', 'x', '--source-weights', 'w'], files)).out);
+    expect(weighted.w2_squared).not.toBeCloseTo(plain.w2_squared, 3);
+  });
+
+  test('without --columns every numeric column is used; quantile on several columns says dependence is not matched', async () => {
+    const two = 'a,b\n1,5\n2,3\n3,9\n4,1\n';
+    const r = await run(['fit', '--source', 's.csv', '--target', 't.csv', '--method', 'quantile', '--out', 'm.json'], { 's.csv': two, 't.csv': two });
+    expect(r.code).toBe(0);
+    expect(r.err).toMatch(/dependence/i);
+  });
+
+  test('report prints the diagnostics as JSON', async () => {
+    const files: Record<string, string> = { 's.csv': S, 't.csv': T };
+    await run(['fit', '--source', 's.csv', '--target', 't.csv', '--columns', 'x', '--out', 'm.json'], files);
+    const r = await run(['report', '--model', 'm.json'], files);
+    expect(JSON.parse(r.out).method).toBe('quantile');
+  });
+
+  test('bad input exits 1 with one line on stderr that says what to fix; bad usage exits 2', async () => {
+    const files = { 's.csv': S, 't.csv': T, 'bad.csv': 'x\n1\nNaN\n' };
+    const missing = await run(['fit', '--source', 'nope.csv', '--target', 't.csv', '--out', 'm.json'], files);
+    expect(missing.code).toBe(1);
+    expect(missing.err).toBe('remap: cannot read nope.csv (ENOENT); check the path.\n');
+    const nan = await run(['cost', '--source', 'bad.csv', '--target', 't.csv', '--columns', 'x'], files);
+    expect(nan.code).toBe(1);
+    expect(nan.err).toMatch(/^remap: .*non-finite number \(NaN\) in row 2.*\n$/);
+    expect(nan.err.split('\n').length).toBe(2);
+    const unknown = await run(['fit', '--colour', 'red'], files);
+    expect(unknown.code).toBe(2);
+    expect(unknown.err).toMatch(/fit has no option --colour; its options are --source/);
+    const noOut = await run(['fit', '--source', 's.csv', '--target', 't.csv'], files);
+    expect(noOut.code).toBe(2);
+    expect(noOut.err).toMatch(/fit needs --out/);
+    const badJson = await run(['apply', '--model', 's.csv', '--input', 's.csv'], files);
+    expect(badJson.code).toBe(1);
+    expect(badJson.err).toMatch(/Map JSON could not be read/);
+  });
+
+  test('the installed command runs through npx-style bin/remap.js and exits non-zero without a stack trace', () => {
+    const bin = path.join(__dirname, '..', '..', 'bin', 'remap.js');
+    const ok = execFileSync(process.execPath, [bin, 'methods'], { encoding: 'utf8' });
+    expect(ok).toMatch(/^quantile /m);
+    const bad = spawnSync(process.execPath, [bin, 'cost', '--source', 'nope.csv', '--target', 'nope.csv'], { encoding: 'utf8' });
+    expect(bad.status).toBe(1);
+    expect(bad.stderr).toBe('remap: cannot read nope.csv (ENOENT); check the path.\n');
+  });
+});
