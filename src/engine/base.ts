@@ -1,6 +1,7 @@
+import { compareFit, type Comparisons } from './assess';
 import { RemapError } from './errors';
 import type { CostReport, Diagnostics, FitRecord, MapJSON, Mapped, MethodName, TransportMap, Warning } from './map';
-import type { Points } from './points';
+import type { Points, Sample } from './points';
 import type { Settings } from './settings';
 
 /** What every fitted map records about how it was fitted. */
@@ -26,6 +27,8 @@ export abstract class BaseMap implements TransportMap {
   readonly fitted: FitRecord;
   private appliedRows = 0;
   private appliedOutside = 0;
+  private pending: { source: Sample; target: Sample } | null = null;
+  private compared: Comparisons | null = null;
 
   protected constructor(header: MapHeader, fitted: FitRecord) {
     this.header = header;
@@ -59,8 +62,33 @@ export abstract class BaseMap implements TransportMap {
     return this.fitted.cost;
   }
 
+  /**
+   * Keeps the fitted samples so that the energy distances and KS statistic
+   * (assess.ts) can be computed when diagnostics or JSON are first asked for,
+   * rather than slowing every fit. A no-op when the method recorded them itself.
+   * The samples are held by reference: the engine never mutates them.
+   */
+  attachSamples(source: Sample, target: Sample): void {
+    if (this.fitted.energyAfter === undefined && this.fitted.ksMaxAfter === undefined) this.pending = { source, target };
+  }
+
+  /** The fit record with any comparisons computed since fitting. */
+  private record(): FitRecord {
+    if (this.pending) {
+      const { source, target } = this.pending;
+      this.pending = null;
+      try {
+        this.compared = compareFit(source, source.weights, this.applyPoints(source), target, target.weights);
+      } catch {
+        this.compared = null; // a comparison that cannot be made is left out, never guessed
+      }
+    }
+    return this.compared ? { ...this.fitted, ...this.compared } : this.fitted;
+  }
+
   diagnostics(): Diagnostics {
-    const warnings: Warning[] = [...this.fitted.warnings];
+    const fitted = this.record();
+    const warnings: Warning[] = [...fitted.warnings];
     if (this.appliedOutside > 0) {
       const share = this.appliedOutside / Math.max(1, this.appliedRows);
       warnings.push({
@@ -76,12 +104,12 @@ export abstract class BaseMap implements TransportMap {
       d: this.d,
       columns: this.header.columns,
       dropped: this.header.dropped,
-      cost: this.fitted.cost,
-      energyBefore: this.fitted.energyBefore,
-      energyAfter: this.fitted.energyAfter,
-      ksMaxAfter: this.fitted.ksMaxAfter,
-      minJacobianEigenvalue: this.fitted.minJacobianEigenvalue,
-      convergence: this.fitted.convergence,
+      cost: fitted.cost,
+      energyBefore: fitted.energyBefore,
+      energyAfter: fitted.energyAfter,
+      ksMaxAfter: fitted.ksMaxAfter,
+      minJacobianEigenvalue: fitted.minJacobianEigenvalue,
+      convergence: fitted.convergence,
       applied: { rows: this.appliedRows, outside: this.appliedOutside },
       warnings,
     };
@@ -98,7 +126,7 @@ export abstract class BaseMap implements TransportMap {
       n: this.header.n,
       dropped: this.header.dropped,
       params: this.params(),
-      fitted: this.fitted,
+      fitted: this.record(),
     };
   }
 

@@ -1,3 +1,4 @@
+import { BaseMap } from './base';
 import { RemapError } from './errors';
 import type { FitContext, MapJSON, MethodName, TransportMap } from './map';
 import type { MethodSpec } from './method';
@@ -61,9 +62,7 @@ export async function fitMap(
   rawSettings: Readonly<Record<string, unknown>> = {},
   ctx: FitContext = {},
 ): Promise<TransportMap> {
-  const method = getMethod(name);
-  const settings = prepareFit(method, source, target, rawSettings);
-  return await method.fit(source, target, settings, ctx);
+  return await startFit(name, source, target, rawSettings, ctx);
 }
 
 /**
@@ -79,7 +78,14 @@ export function startFit(
 ): TransportMap | Promise<TransportMap> {
   const method = getMethod(name);
   const settings = prepareFit(method, source, target, rawSettings);
-  return method.fit(source, target, settings, ctx);
+  const r = method.fit(source, target, settings, ctx);
+  return r instanceof Promise ? r.then((m) => withSamples(m, source, target)) : withSamples(r, source, target);
+}
+
+/** Lets a fitted map compare its mapped source with the target when diagnostics are asked for. */
+function withSamples(map: TransportMap, source: Sample, target: Sample): TransportMap {
+  if (map instanceof BaseMap) map.attachSamples(source, target);
+  return map;
 }
 
 /**
@@ -94,12 +100,10 @@ export function fitMapSync(
   rawSettings: Readonly<Record<string, unknown>> = {},
   ctx: FitContext = {},
 ): TransportMap {
-  const method = getMethod(name);
-  const settings = prepareFit(method, source, target, rawSettings);
-  const r = method.fit(source, target, settings, ctx);
+  const r = startFit(name, source, target, rawSettings, ctx);
   if (r instanceof Promise) {
     r.then((m) => m.dispose(), () => undefined);
-    throw new RemapError(`The ${method.name} method trains in the background; use REMAP.FIT and apply its handle instead.`);
+    throw new RemapError(`The ${getMethod(name).name} method trains in the background; use REMAP.FIT and apply its handle instead.`);
   }
   return r;
 }

@@ -151,3 +151,16 @@ describe('REMAP.FIT, APPLY, INVERT, REPORT, SAVE', () => {
     expect(sheetError(() => F.apply(7, [[1]])).message).toMatch(/must be the cell holding REMAP.FIT/);
   });
 });
+
+describe('diagnostics for every method', () => {
+  test('REPORT of a quantile map includes energy distances and the KS statistic after mapping', async () => {
+    // Source: equal-size samples map exactly onto the target's order statistics, so after mapping
+    // the two empirical distributions coincide: KS = 0 and energy distance = 0 (definitions, Szekely & Rizzo)
+    const h = await F.fit(col([5, 1, 4, 2, 3]), col([50, 10, 40, 20, 30]));
+    const table = (await F.report(h)) as unknown[][];
+    const get = (label: string) => table.find((r) => r[0] === label)?.[1];
+    expect(get('Largest KS statistic after')).toBe(0);
+    expect(get('Energy distance after')).toBeCloseTo(0, 12);
+    expect(get('Energy distance before') as number).toBeGreaterThan(10);
+  });
+});

@@ -7,7 +7,7 @@ import { weightedMoments } from '../stats/moments';
 import { symmetricEigen } from '../stats/symmetric-eigen';
 import { affineApply } from './affine-apply';
 import { columnRanges } from './column-ranges';
-import { compareFit } from './comparisons';
+import { compareFit } from '../assess';
 import { covarianceCondition, ILL_CONDITIONED_RATIO } from './covariance-condition';
 import { gaussianTransport } from './gaussian-transport';
 import { LinearMap } from './linear-map';

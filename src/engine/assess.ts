@@ -1,7 +1,7 @@
-import type { Points } from '../points';
-import { energyDistance } from '../stats/energy-distance';
-import { ksStatistic } from '../stats/ks';
-import { columnOf } from '../points';
+import type { Points } from './points';
+import { energyDistance } from './stats/energy-distance';
+import { ksStatistic } from './stats/ks';
+import { columnOf } from './points';
 
 /** Rows per side used for the fit-time energy distances when d > 1 (seeded subsample above this). */
 export const COMPARISON_MAX_ROWS = 1000;

@@ -1,7 +1,7 @@
-import { compareFit, COMPARISON_MAX_ROWS, COMPARISON_SEED } from '../../../src/engine/linear/comparisons';
-import { energyDistance } from '../../../src/engine/stats/energy-distance';
-import { ksStatistic } from '../../../src/engine/stats/ks';
-import { columnOf, points } from '../../../src/engine/points';
+import { compareFit, COMPARISON_MAX_ROWS, COMPARISON_SEED } from '../../src/engine/assess';
+import { energyDistance } from '../../src/engine/stats/energy-distance';
+import { ksStatistic } from '../../src/engine/stats/ks';
+import { columnOf, points } from '../../src/engine/points';
 
 describe('compareFit(source, ws, mapped, target, wt) records energy before/after and the largest KS after', () => {
   const source = points([[0, 0], [1, 0], [0, 1], [1, 1]]);
