@@ -1,14 +1,15 @@
 import { RemapError } from '../engine/errors';
 import { Fingerprint } from '../engine/fingerprint';
 import type { FitContext, TransportMap } from '../engine/map';
-import { getMethod, startFit } from '../engine/methods';
+import { getMethod, restoreMap, startFit } from '../engine/methods';
+import { parseMapJSON } from '../engine/map-json';
 import type { Sample } from '../engine/points';
 import { gaussianW2Squared } from '../engine/linear/bures';
 import { chooseMethod } from '../engine/auto';
 import { type CellIn, type CellOut, type Grid } from './cells';
-import { readNumbers, readSample, readSettings, readText, readValues, writeValues, type ReadSample } from './coerce';
+import { asRows, readNumbers, readSample, readSettings, readText, readValues, writeValues, type ReadSample } from './coerce';
 import { reportTable } from './report';
-import { makeHandle, recallOrFit, resolveMap } from './store';
+import { makeHandle, recallOrFit, remember, resolveMap } from './store';
 
 /**
  * What each worksheet function does, without Office: read cells through the
@@ -129,6 +130,49 @@ export function report(model: CellIn): MaybePromise<Grid> {
 export function save(model: CellIn): MaybePromise<string> {
   const fn = 'REMAP.SAVE';
   return then(resolveMap(modelText(model, fn), fn), (map) => JSON.stringify(map.toJSON()));
+}
+
+/**
+ * REMAP.PAIRS: for each source row, the target row the exact optimal assignment
+ * matches it with (output "values", the default) or that row's position in the
+ * target range, counting a header row (output "index", ready for INDEX()).
+ * Rows the coercion skipped stay blank; a header row is echoed.
+ */
+export function pairs(source: CellIn, target: CellIn, output?: CellIn): MaybePromise<Grid> {
+  const fn = 'REMAP.PAIRS';
+  const kind = readText(output, 'output', fn, 'values');
+  if (kind !== 'values' && kind !== 'index') throw new RemapError(`${fn}: output must be "values" or "index", not "${kind}".`);
+  const inputs = readFit(fn, source, target, 'pairs', undefined, undefined, undefined);
+  return then(fitFromInputs(inputs), (map) => {
+    const match = (map as unknown as { pairs(): Int32Array }).pairs();
+    const s = inputs.source;
+    const t = inputs.target;
+    const d = s.sample.d;
+    const sourceRows = asRows(source).length === 1 && d === 1 ? asRows(source)[0].length : asRows(source).length;
+    const out: Grid = [];
+    for (let r = 0; r < sourceRows; r++) out.push(new Array(kind === 'index' ? 1 : d).fill(''));
+    if (s.columns) out[0] = kind === 'index' ? ['target row'] : [...(t.columns ?? s.columns)];
+    for (let i = 0; i < s.sample.n; i++) {
+      const j = match[i];
+      out[s.rows[i]] = kind === 'index' ? [t.rows[j] + 1] : Array.from(t.sample.data.subarray(j * d, (j + 1) * d));
+    }
+    return out;
+  });
+}
+
+/**
+ * REMAP.LOAD: restores a map from REMAP.SAVE's JSON text and returns a handle
+ * for it (derived from the text, so the same JSON gives the same handle).
+ */
+export function load(json: CellIn): string {
+  const fn = 'REMAP.LOAD';
+  const text = modelText(json, fn);
+  if (!text.trim().startsWith('{')) throw new RemapError(`${fn}: give the JSON text REMAP.SAVE wrote (it starts with "{").`);
+  const map = restoreMap(parseMapJSON(text));
+  const diag = map.diagnostics();
+  const handle = makeHandle(map.method, diag.n.source, map.d, new Fingerprint().text(text).hex());
+  remember(handle, map);
+  return handle;
 }
 
 function modelText(model: CellIn, fn: string): string {

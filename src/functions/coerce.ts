@@ -30,6 +30,8 @@ export interface ReadSample {
   readonly dropped: number;
   /** Column names from a header row, or null. */
   readonly columns: string[] | null;
+  /** For each sample row, its row in the range (0-based, counting a header row). */
+  readonly rows: Int32Array;
 }
 
 export interface ReadSampleOptions {
@@ -122,6 +124,7 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
   const end = Math.max(lastUsedRow(rows), weightRows ? lastUsedRow(weightRows) : 0);
   const data: number[] = [];
   const weights: number[] = [];
+  const kept: number[] = [];
   let dropped = 0;
   for (let i = 0; i < end; i++) {
     const row = rows[i];
@@ -150,6 +153,7 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
       }
       data.push(v as number);
       weights.push(w);
+      kept.push(i + offset);
       continue;
     }
     let allNumbers = rowOk;
@@ -165,6 +169,7 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
     }
     for (let k = 0; k < d; k++) data.push(row[k] as number);
     weights.push(w);
+    kept.push(i + offset);
   }
   const n = weights.length;
   const sample: Sample = {
@@ -173,7 +178,7 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
     data: Float64Array.from(data),
     weights: weightRows ? Float64Array.from(weights) : null,
   };
-  return { sample, dropped, columns };
+  return { sample, dropped, columns, rows: Int32Array.from(kept) };
 }
 
 /** Where each point to map came from, so results go back in the same shape. */

@@ -104,3 +104,25 @@ export function report(model: any): any[][] {
 export function save(model: any): string {
   return guard(() => calls.save(model)) as unknown as string;
 }
+
+/**
+ * For each source row, the target row that the exact optimal one-to-one assignment matches it with (equal-size samples).
+ * @customfunction PAIRS
+ * @param source The source sample: one row per observation.
+ * @param target The target sample: the same number of rows and columns.
+ * @param [output] "values" (default: the matched target row's values) or "index" (its row number within the target range).
+ * @returns One matched target row (or row number) per source row.
+ */
+export function pairs(source: any[][], target: any[][], output?: any): any[][] {
+  return guard(() => calls.pairs(source, target, output)) as unknown as any[][];
+}
+
+/**
+ * Restores a map from the JSON text REMAP.SAVE wrote and returns its handle, for REMAP.APPLY and REMAP.REPORT.
+ * @customfunction LOAD
+ * @param json The map's JSON text.
+ * @returns A handle naming the restored map.
+ */
+export function load(json: any): string {
+  return guard(() => calls.load(json)) as unknown as string;
+}

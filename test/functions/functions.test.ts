@@ -164,3 +164,35 @@ describe('diagnostics for every method', () => {
     expect(get('Energy distance before') as number).toBeGreaterThan(10);
   });
 });
+
+describe('REMAP.PAIRS and REMAP.LOAD', () => {
+  test('PAIRS in one column is the sorted matching; "index" gives row numbers within the target range', async () => {
+    // Source: in 1-D the monotone rearrangement is the optimal assignment (fact of the trade)
+    const vals = await F.pairs(col([3, 1, 2]), col([20, 30, 10]));
+    expect(vals).toEqual([[30], [10], [20]]);
+    const idx = await F.pairs([['x'], [3], [1], [2]], [['y'], [20], [30], [10]], 'index');
+    // header row echoed; target rows counted from the range's first row (the header), as INDEX() counts
+    expect(idx).toEqual([['target row'], [3], [4], [2]]);
+  });
+
+  test('PAIRS keeps skipped source rows blank so results line up with the sheet', async () => {
+    const out = await F.pairs([[1], ['n/a'], [2]], col([5, 6]));
+    expect(out).toEqual([[5], [''], [6]]);
+  });
+
+  test('PAIRS of unequal sizes says to use the entropic method', () => {
+    expect(sheetError(() => F.pairs(col([1, 2, 3]), col([1, 2]))).message).toMatch(/entropic/);
+  });
+
+  test('LOAD restores SAVE\'s JSON: the same JSON gives the same handle and identical results', async () => {
+    const h = await F.fit(col([1, 2, 3, 4]), col([2, 4, 8, 16]));
+    const json = (await F.save(h)) as string;
+    forgetAll();
+    const loaded = F.load(json);
+    expect(loaded).toMatch(/^remap:quantile:4x1:[0-9a-f]{14}$/);
+    expect(F.load(json)).toBe(loaded);
+    expect(await F.apply(loaded, [[2.5]])).toEqual(await F.apply(json, [[2.5]]));
+    expect(sheetError(() => F.load('not json')).message).toMatch(/JSON text REMAP.SAVE wrote/);
+    expect(sheetError(() => F.load('{"format":"other"}')).message).toMatch(/"format" field is not "remap.map"/);
+  });
+});
