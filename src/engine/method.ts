@@ -18,6 +18,8 @@ export interface MethodSpec {
   readonly settings: readonly SettingSpec[];
   /** The fewest rows (with positive weight) each sample needs, given d. */
   minRows(d: number): number;
+  /** True when `fit` trains in the background and returns a Promise. */
+  readonly background?: boolean;
   /** Can this method use row weights? */
   readonly weights: boolean;
   /** Fits from validated samples (same d, finite, weights checked) and resolved settings. */

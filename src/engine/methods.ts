@@ -100,12 +100,17 @@ export function fitMapSync(
   rawSettings: Readonly<Record<string, unknown>> = {},
   ctx: FitContext = {},
 ): TransportMap {
+  const method = getMethod(name);
+  const refuse = (): never => {
+    throw new RemapError(`The ${method.name} method trains in the background; use REMAP.FIT and apply its handle instead.`);
+  };
+  if (method.background) refuse();
   const r = startFit(name, source, target, rawSettings, ctx);
   if (r instanceof Promise) {
     r.then((m) => m.dispose(), () => undefined);
-    throw new RemapError(`The ${getMethod(name).name} method trains in the background; use REMAP.FIT and apply its handle instead.`);
+    refuse();
   }
-  return r;
+  return r as TransportMap;
 }
 
 /** Restores a map from JSON already checked by `parseMapJSON`. */
