@@ -36,3 +36,12 @@ export { pairsMethod, fitPairs } from './pairs/method';
 export { solveAssignment, type Assignment, type AssignmentOptions } from './pairs/assignment';
 export { findPairs, matchRows, MAX_PAIRS_ROWS, type RowMatch } from './pairs/match-rows';
 export { PairsMap, type PairsParams } from './pairs/pairs-map';
+
+export { entropicMethod } from './entropic/method';
+export { fitEntropic } from './entropic/fit';
+export { EntropicMap, type EntropicParts, type EntropicParamsJSON } from './entropic/entropic-map';
+export { ENTROPIC_SETTINGS } from './entropic/settings';
+export { solveSinkhorn, type TransportProblem, type SinkhornOptions, type SinkhornResult } from './entropic/sinkhorn';
+export { sinkhornDivergence } from './entropic/sinkhorn-divergence';
+export { barycentricMap } from './entropic/barycentric-map';
+export { rowSquaredNorms, squaredDistances, squaredDistancesRow } from './stats/sq-distances';

@@ -1,0 +1,23 @@
+import { entropicMethod } from '../../../src/engine/entropic/method';
+import { fitMap, registerMethod, restoreMap } from '../../../src/engine/methods';
+import { sample } from '../../../src/engine/points';
+
+describe('entropicMethod', () => {
+  test('is a joint, weighted method needing 2 rows, with eps, max_iterations, tolerance and seed settings', () => {
+    expect(entropicMethod.name).toBe('entropic');
+    expect(entropicMethod.shape).toBe('joint');
+    expect(entropicMethod.weights).toBe(true);
+    expect(entropicMethod.minRows(5)).toBe(2);
+    expect(entropicMethod.settings.map((s) => s.name)).toEqual(['eps', 'max_iterations', 'tolerance', 'seed']);
+  });
+
+  test('fits through fitMap with text settings and restores through restoreMap', async () => {
+    registerMethod(entropicMethod);
+    const src = sample([[0, 0], [1, 0], [0, 1], [1, 1]]);
+    const tgt = sample([[5, 5], [7, 5], [5, 7], [7, 7]], [1, 2, 1, 2]);
+    const map = await fitMap('entropic', src, tgt, { EPS: '0.5', tolerance: '1e-9' });
+    expect(map.diagnostics().settings.eps).toBe(0.5);
+    const back = restoreMap(JSON.parse(JSON.stringify(map.toJSON())));
+    expect(Array.from(back.apply(src).data)).toEqual(Array.from(map.apply(src).data));
+  });
+});

@@ -1,0 +1,20 @@
+import { ENTROPIC_SETTINGS, readEntropicSettings } from '../../../src/engine/entropic/settings';
+import { RemapError } from '../../../src/engine/errors';
+import { resolveSettings } from '../../../src/engine/settings';
+
+describe('entropic settings', () => {
+  test('readEntropicSettings fills defaults: eps 0 (choose from the data), 1000 iterations, tolerance 1e-6, seed 1', () => {
+    expect(readEntropicSettings({})).toEqual({ eps: 0, maxIterations: 1000, tolerance: 1e-6, seed: 1 });
+  });
+
+  test('resolveSettings accepts the entropic settings by name and rejects a negative eps', () => {
+    const s = resolveSettings('entropic', ENTROPIC_SETTINGS, { EPS: '0.5', 'Max-Iterations': 20 });
+    expect(readEntropicSettings(s)).toEqual({ eps: 0.5, maxIterations: 20, tolerance: 1e-6, seed: 1 });
+    expect(() => resolveSettings('entropic', ENTROPIC_SETTINGS, { eps: -1 })).toThrow(/eps/);
+  });
+
+  test('readEntropicSettings rejects values outside their range with RemapError', () => {
+    expect(() => readEntropicSettings({ tolerance: 0 })).toThrow(RemapError);
+    expect(() => readEntropicSettings({ max_iterations: 2.5 })).toThrow(/whole number/);
+  });
+});
