@@ -1,0 +1,179 @@
+import * as tf from '@tensorflow/tfjs';
+import { RemapError } from '../errors';
+import type { FitContext } from '../map';
+import { activateBackend, exclusive, type BackendName } from './backend';
+import { BatchSampler, gatherRows } from './batch-sampler';
+import type { NetworkParams } from './network-params';
+import { PlateauDetector } from './plateau';
+import { makePrng } from './prng';
+import { batchSinkhorn, type BatchSinkhornSetup } from './batch-sinkhorn';
+import { Float64Network } from './float64-network';
+import { TensorNetwork, paramsFromFlat } from './tensor-network';
+
+/** Training settings, already validated (see settings.ts). */
+export interface TrainOptions {
+  readonly steps: number;
+  readonly learningRate: number;
+  /** Rows per batch from each sample; 0 = every row. */
+  readonly batch: number;
+  readonly seed: number;
+  readonly timeBudgetMs: number;
+  readonly backend: BackendName;
+  /** Sinkhorn blur in standardised units (eps = blur^2). */
+  readonly blur: number;
+  /** Sinkhorn iterations per step. */
+  readonly sinkhornIterations: number;
+}
+
+/** Row-major standardised data of one sample. */
+export interface TrainData {
+  readonly n: number;
+  readonly d: number;
+  readonly data: Float64Array;
+  readonly weights: Float64Array | null;
+}
+
+export type StopReason = 'plateau' | 'steps' | 'time-budget';
+
+export interface TrainResult {
+  readonly params: NetworkParams;
+  readonly steps: number;
+  /** Smoothed (moving-average) debiased Sinkhorn divergence between batches at the end, standardised units. */
+  readonly finalLoss: number;
+  readonly stopped: StopReason;
+  readonly elapsedMs: number;
+  readonly backend: BackendName;
+  /** Why wasm was not used, when it was asked for and failed to load. */
+  readonly backendFallback: string | null;
+}
+
+/** How often progress is reported (steps and milliseconds, whichever comes first). */
+const PROGRESS_EVERY_STEPS = 10;
+const PROGRESS_EVERY_MS = 200;
+/** Yield to the event loop this often, so a caller can set `signal.aborted`. */
+const YIELD_EVERY_MS = 50;
+/** Learning-rate cuts on plateaus before stopping (reduce-on-plateau, common practice). */
+const LR_CUTS = 2;
+const LR_CUT_FACTOR = 0.3;
+
+/**
+ * Trains a gradient network from unpaired samples by minimising the debiased
+ * Sinkhorn divergence between F(source batch) and a target batch (Adam, Kingma &
+ * Ba, arXiv 1412.6980). Each step: draw batches with our seeded generator; map
+ * the source batch with the current weights in float64; compute the divergence
+ * and its gradient G with respect to the mapped points (batch-sinkhorn.ts,
+ * envelope theorem: only the final potentials matter); then tfjs differentiates
+ * the surrogate sum_i <F(x_i), G_i> (same parameter gradient, by the chain rule)
+ * and Adam updates the one weight variable. Stops at a smoothed-loss plateau
+ * (after up to two learning-rate cuts), after `steps`, or when `timeBudgetMs` is
+ * spent. Deterministic: same data, start and seed give bit-identical weights on
+ * the same backend. Every tensor block runs in tf.tidy; only the weight variable
+ * and the optimiser's slots persist, and all are disposed before returning
+ * (also on error or cancel).
+ * Cost per step O(batch^2 (d + iterations) + batch * hidden * (d + layers)).
+ * @throws RemapError(kind 'cancelled') when ctx.signal.aborted becomes true;
+ *   RemapError(kind 'num') if the loss becomes non-finite.
+ */
+export function trainGradientNet(
+  source: TrainData,
+  target: TrainData,
+  start: NetworkParams,
+  opts: TrainOptions,
+  ctx: FitContext = {},
+): Promise<TrainResult> {
+  return exclusive(() => train(source, target, start, opts, ctx));
+}
+
+async function train(source: TrainData, target: TrainData, start: NetworkParams, opts: TrainOptions, ctx: FitContext): Promise<TrainResult> {
+  const { backend, fallback } = await activateBackend(opts.backend);
+  const t0 = Date.now();
+  const d = source.d;
+  const rng = makePrng(opts.seed ^ 0x5bd1e995);
+  const sizeX = opts.batch > 0 ? opts.batch : source.n;
+  const sizeY = opts.batch > 0 ? opts.batch : target.n;
+  const sx = new BatchSampler(source.n, sizeX, source.weights, rng);
+  const sy = new BatchSampler(target.n, sizeY, target.weights, rng);
+  let diameter2 = 0;
+  for (let i = 0; i < target.n; i++) {
+    let r = 0;
+    for (let k = 0; k < d; k++) r += target.data[i * d + k] ** 2;
+    diameter2 = Math.max(diameter2, 4 * r);
+  }
+  const setup: BatchSinkhornSetup = { blur: opts.blur, diameter2, iterations: opts.sinkhornIterations };
+  const net = new TensorNetwork(start);
+  const vars = [net.theta];
+  let lr = opts.learningRate;
+  let optimizer = tf.train.adam(lr);
+  const fullX = sx.isFull ? sx.next() : null;
+  const fullY = sy.isFull ? sy.next() : null;
+  const fullXTensor = fullX ? tf.tensor2d(gatherRows(source.data, d, fullX), [fullX.length, d]) : null;
+  const plateau = new PlateauDetector();
+  let cuts = 0;
+  let step = 0;
+  let stopped: StopReason = 'steps';
+  let lastProgress = -Infinity;
+  let lastYield = Date.now();
+  let current: NetworkParams = net.toParams();
+  const row = new Float64Array(d);
+  const out = new Float64Array(d);
+  try {
+    for (; step < opts.steps; step++) {
+      if (ctx.signal?.aborted) throw new RemapError(`fit (gradient-net): training was cancelled at step ${step} of ${opts.steps}.`, 'cancelled');
+      if (Date.now() - t0 > opts.timeBudgetMs) {
+        stopped = 'time-budget';
+        break;
+      }
+      const ix = fullX ?? sx.next();
+      const iy = fullY ?? sy.next();
+      // Mapped source batch in float64 with the current weights.
+      const f64 = new Float64Network(current);
+      const mapped = new Float64Array(ix.length * d);
+      for (let b = 0; b < ix.length; b++) {
+        for (let k = 0; k < d; k++) row[k] = source.data[ix[b] * d + k];
+        f64.forward(row, out);
+        mapped.set(out, b * d);
+      }
+      const yb = new Float64Array(iy.length * d);
+      for (let b = 0; b < iy.length; b++) for (let k = 0; k < d; k++) yb[b * d + k] = target.data[iy[b] * d + k];
+      const { value, gradient } = batchSinkhorn(mapped, ix.length, yb, iy.length, d, setup);
+      if (!Number.isFinite(value)) {
+        throw new RemapError(`fit (gradient-net): the training loss became ${value} at step ${step + 1}; lower learning_rate (now ${opts.learningRate}) or rescale the data.`, 'num');
+      }
+      tf.tidy(() => {
+        const xb = fullXTensor ?? tf.tensor2d(gatherRows(source.data, d, ix), [ix.length, d]);
+        const g = tf.tensor2d(Float32Array.from(gradient), [ix.length, d]);
+        optimizer.minimize(() => tf.sum(tf.mul(net.apply(xb), g)) as tf.Scalar, false, vars);
+      });
+      current = paramsFromFlat(await net.theta.data(), d, start.hidden, start.layers);
+      if (plateau.push(value)) {
+        if (cuts >= LR_CUTS) {
+          step++;
+          stopped = 'plateau';
+          break;
+        }
+        cuts++;
+        lr *= LR_CUT_FACTOR;
+        optimizer.dispose();
+        optimizer = tf.train.adam(lr);
+        plateau.reset();
+      }
+      const now = Date.now();
+      if (ctx.onProgress && (step % PROGRESS_EVERY_STEPS === 0 || now - lastProgress >= PROGRESS_EVERY_MS)) {
+        lastProgress = now;
+        ctx.onProgress({ step: step + 1, of: opts.steps, loss: plateau.smoothed, elapsedMs: now - t0 });
+      }
+      if (now - lastYield >= YIELD_EVERY_MS) {
+        await new Promise<void>((r) => setTimeout(r, 0));
+        lastYield = Date.now();
+      }
+    }
+    const params = current;
+    const elapsedMs = Date.now() - t0;
+    ctx.onProgress?.({ step, of: opts.steps, loss: plateau.smoothed, elapsedMs, message: `stopped: ${stopped}` });
+    return { params, steps: step, finalLoss: plateau.smoothed, stopped, elapsedMs, backend, backendFallback: fallback };
+  } finally {
+    optimizer.dispose();
+    net.dispose();
+    fullXTensor?.dispose();
+  }
+}

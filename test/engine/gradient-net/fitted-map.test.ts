@@ -1,0 +1,43 @@
+import { GradientNetMap } from '../../../src/engine/gradient-net/fitted-map';
+import type { MapJSON } from '../../../src/engine/map';
+import { randomParams } from './helpers';
+
+function makeMap(tails: 'clamp' | 'linear'): GradientNetMap {
+  const p = randomParams(2, 6, 1, 3);
+  const frame = { mean: Float64Array.of(1, 2), scale: 2, lo: Float64Array.of(-3, -2), hi: Float64Array.of(5, 6) };
+  const header = { method: 'gradient-net' as const, d: 2, settings: { tails }, columns: null, n: { source: 50, target: 50 }, dropped: { source: 0, target: 0 } };
+  const cost = { kind: 'mapped' as const, w2Squared: 1, w2: 1, note: '' };
+  return new GradientNetMap(header, { cost, warnings: [] }, p, frame, frame);
+}
+
+describe('GradientNetMap', () => {
+  test('counts rows outside the fitted range; clamp maps them like the nearest in-range point', () => {
+    const map = makeMap('clamp');
+    const r = map.apply({ n: 2, d: 2, data: Float64Array.of(10, 0, 5, 0) });
+    expect(r.outside).toBe(1);
+    expect(r.data[0]).toBe(r.data[2]); // Source: tails=clamp, x = 10 clamps to 5
+    expect(map.diagnostics().warnings.map((w) => w.code)).toContain('extrapolation');
+    const lin = makeMap('linear').apply({ n: 2, d: 2, data: Float64Array.of(10, 0, 5, 0) });
+    expect(lin.data[0]).not.toBe(lin.data[2]);
+  });
+
+  test('jacobianAt is symmetric positive definite in original units', () => {
+    const j = makeMap('linear').jacobianAt([0.5, 1]);
+    expect(j[1]).toBe(j[2]);
+    expect(j[0]).toBeGreaterThan(0);
+    expect(j[0] * j[3] - j[1] * j[2]).toBeGreaterThan(0);
+    expect(() => makeMap('linear').jacobianAt([1])).toThrow(/give 2/);
+  });
+
+  test('fromJSON rejects damaged parameters with a message saying what to do', () => {
+    const json = makeMap('linear').toJSON();
+    const bad = (params: unknown) => ({ ...json, params }) as MapJSON;
+    const p = json.params as { network: Record<string, unknown>; source: unknown; target: unknown };
+    expect(() => GradientNetMap.fromJSON(bad(null))).toThrow(/no network parameters/);
+    expect(() => GradientNetMap.fromJSON(bad({ ...p, network: { ...p.network, w: [1, 'x'] } }))).toThrow(/w\[1\] is x/);
+    expect(() => GradientNetMap.fromJSON(bad({ ...p, source: { mean: [0, 0], scale: -1, lo: [0, 0], hi: [1, 1] } }))).toThrow(/positive number/);
+    expect(GradientNetMap.fromJSON(JSON.parse(JSON.stringify(json))).apply({ n: 1, d: 2, data: Float64Array.of(1, 1) }).data).toEqual(
+      makeMap('linear').apply({ n: 1, d: 2, data: Float64Array.of(1, 1) }).data,
+    );
+  });
+});
