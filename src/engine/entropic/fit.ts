@@ -10,7 +10,7 @@ import { minJacobianEigenvalue } from './map-jacobian';
 import { readEntropicSettings } from './settings';
 import { sinkhornDivergence } from './sinkhorn-divergence';
 import { SolveControl } from './solve-control';
-import { subsampleRows } from './subsample';
+import { Random } from '../stats/random';
 
 /** The largest kernel the fit stores: 5,000 x 5,000 entries, 200 MB of Float64. */
 export const MAX_KERNEL_ENTRIES = 25_000_000;
@@ -56,7 +56,7 @@ export function fitEntropic(source: Sample, target: Sample, settings: Settings, 
   );
   const { transport, sourceSelf, targetSelf } = result;
 
-  const rows = subsampleRows(n, JACOBIAN_ROWS, opts.seed);
+  const rows = new Random(opts.seed).choose(n, JACOBIAN_ROWS);
   const minEig = minJacobianEigenvalue(sx.points, rows, sy.points, sy.logMass, transport.g, eps);
 
   // S_eps >= 0 in exact arithmetic (Feydy et al. 2019, Theorem 1); a tiny negative value is rounding.

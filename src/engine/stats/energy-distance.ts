@@ -125,15 +125,10 @@ function subsample(p: Points, weights: ArrayLike<number> | null | undefined, nam
   }
   let cut = false;
   if (keep.length > maxRows) {
-    const random = new Random(seed);
-    for (let t = 0; t < maxRows; t++) {
-      const r = t + random.int(keep.length - t);
-      const tmp = keep[t];
-      keep[t] = keep[r];
-      keep[r] = tmp;
-    }
-    keep = keep.slice(0, maxRows);
-    keep.sort();
+    const chosen = new Random(seed).choose(keep.length, maxRows);
+    const all = keep;
+    keep = new Uint32Array(maxRows);
+    for (let t = 0; t < maxRows; t++) keep[t] = all[chosen[t]];
     cut = true;
   }
   const m = keep.length;

@@ -86,4 +86,22 @@ export class Random {
     }
     return p;
   }
+
+  /**
+   * k distinct indices out of 0..n-1, in increasing order (all of them when
+   * k >= n), by a partial Fisher-Yates shuffle. O(n).
+   * @example new Random(1).choose(5, 10) // Int32Array [0, 1, 2, 3, 4]
+   */
+  choose(n: number, k: number): Int32Array {
+    const idx = new Int32Array(n);
+    for (let i = 0; i < n; i++) idx[i] = i;
+    if (k >= n) return idx;
+    for (let i = 0; i < k; i++) {
+      const j = i + this.int(n - i);
+      const t = idx[i];
+      idx[i] = idx[j];
+      idx[j] = t;
+    }
+    return idx.slice(0, k).sort();
+  }
 }

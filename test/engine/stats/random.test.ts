@@ -34,4 +34,15 @@ describe('Random (seeded sfc32)', () => {
     const p = new Random(3).permutation(1000);
     expect(Array.from(p).sort((x, y) => x - y)).toEqual(Array.from({ length: 1000 }, (_, i) => i));
   });
+
+  test('choose gives k distinct sorted indices in range, the same for the same seed', () => {
+    const a = new Random(7).choose(1000, 50);
+    expect(Array.from(new Random(7).choose(1000, 50))).toEqual(Array.from(a));
+    expect(new Set(a).size).toBe(50);
+    for (let i = 1; i < a.length; i++) expect(a[i]).toBeGreaterThan(a[i - 1]);
+    expect(a[0]).toBeGreaterThanOrEqual(0);
+    expect(a[49]).toBeLessThan(1000);
+    expect(Array.from(new Random(8).choose(1000, 50))).not.toEqual(Array.from(a));
+    expect(Array.from(new Random(1).choose(4, 10))).toEqual([0, 1, 2, 3]);
+  });
 });
