@@ -19,7 +19,7 @@ import { batchSinkhorn } from '../src/engine/gradient-net/batch-sinkhorn';
 import { gaussLegendre01 } from '../src/engine/gradient-net/gauss-legendre';
 import { initialParams } from '../src/engine/gradient-net/initial-params';
 import { gradientNetMethod } from '../src/engine/gradient-net/method';
-import { makePrng } from '../src/engine/gradient-net/prng';
+import { Random } from '../src/engine/stats/random';
 import { sinkhornDivergenceAt, sinkhornPotentials } from '../src/engine/gradient-net/sinkhorn-divergence';
 import { TensorNetwork } from '../src/engine/gradient-net/tensor-network';
 import { COMMON_SETTINGS, resolveSettings } from '../src/engine/settings';
@@ -49,7 +49,7 @@ function quadratureApply(net: TensorNetwork, x: tf.Tensor2D, nodes: Float64Array
 async function stepTimes(): Promise<void> {
   const n = 4096;
   const d = 5;
-  const r = makePrng(1);
+  const r = new Random(1);
   const xData = Float32Array.from({ length: n * d }, () => r.normal());
   const gData = Float32Array.from({ length: n * d }, () => r.normal() / n);
   const { nodes, weights } = gaussLegendre01(8);
@@ -59,7 +59,7 @@ async function stepTimes(): Promise<void> {
   for (const be of ['wasm', 'cpu']) {
     await tf.setBackend(be);
     await tf.ready();
-    const net = new TensorNetwork(initialParams(d, 64, 1, Float64Array.from({ length: 25 }, (_, i) => (i % 6 === 0 ? 1 : 0)), makePrng(2)));
+    const net = new TensorNetwork(initialParams(d, 64, 1, Float64Array.from({ length: 25 }, (_, i) => (i % 6 === 0 ? 1 : 0)), new Random(2)));
     const x = tf.tensor2d(xData, [n, d]);
     const g = tf.tensor2d(gData, [n, d]);
     const opt = tf.train.adam(0.001);
@@ -87,7 +87,7 @@ async function sinkhornTimes(): Promise<void> {
   console.log(`\n2. Sinkhorn part of one step (8 iterations, value + gradient), d = 5   [load ${load()}]`);
   console.log('batch | float64 JS ms | tfjs wasm ms | tfjs cpu ms | wasm / JS');
   for (const B of quick ? [256] : [256, 512]) {
-    const r = makePrng(B);
+    const r = new Random(B);
     const x = Float64Array.from({ length: B * 5 }, () => r.normal());
     const y = Float64Array.from({ length: B * 5 }, () => r.normal() + 0.3);
     const setup = { blur: 2.5, diameter2: 100, iterations: 8 };

@@ -1,7 +1,7 @@
 import { Float64Network } from '../../src/engine/gradient-net/float64-network';
 import { gaussLegendre01 } from '../../src/engine/gradient-net/gauss-legendre';
 import { sigmoid } from '../../src/engine/gradient-net/sigmoid-energy';
-import { makePrng } from '../../src/engine/gradient-net/prng';
+import { Random } from '../../src/engine/stats/random';
 import { randomParams } from '../engine/gradient-net/helpers';
 
 /**
@@ -35,7 +35,7 @@ function integral(p: ReturnType<typeof randomParams>, x: Float64Array, k: number
 
 describe('closed-form gradient network against its defining integral', () => {
   test('W^T diag(c) [h(Wx+b) - h(b)] + (V^T V + alpha I) x + beta equals the Gauss-Legendre integral to 1e-6 (float64)', () => {
-    const rng = makePrng(11);
+    const rng = new Random(11);
     for (const [d, m] of [[1, 5], [2, 16], [5, 64]]) {
       const p = randomParams(d, m, 1, 100 + d);
       const net = new Float64Network(p);

@@ -1,6 +1,6 @@
 import type { Points } from '../points';
 import { softmaxLogits } from './barycentric-map';
-import { smallestEigenvalue } from './smallest-eigenvalue';
+import { smallestEigenvalue } from '../stats/smallest-eigenvalue';
 
 /**
  * The Jacobian of the entropic map at row i of x:
@@ -60,12 +60,11 @@ export function minJacobianEigenvalue(x: Points, rows: Int32Array, support: Poin
   const h = new Float64Array(m);
   for (let j = 0; j < m; j++) h[j] = logMass[j] + potential[j] / eps;
   const J = new Float64Array(d * d);
-  const work = new Float64Array(d * d);
   const scratch = new Float64Array(m);
   let min = Infinity;
   for (let r = 0; r < rows.length; r++) {
     mapJacobian(x, rows[r], support, h, eps, J, scratch);
-    const e = smallestEigenvalue(J, d, work);
+    const e = smallestEigenvalue(J, d);
     if (e < min) min = e;
   }
   return min;

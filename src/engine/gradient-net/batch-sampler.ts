@@ -1,4 +1,4 @@
-import type { Prng } from './prng';
+import type { Random } from '../stats/random';
 
 /**
  * Deterministic mini-batches of row indices from our own seeded generator.
@@ -14,15 +14,15 @@ export class BatchSampler {
   private readonly cumulative: Float64Array | null;
   private readonly order: Uint32Array;
   private cursor: number;
-  private readonly rng: Prng;
+  private readonly rng: Random;
 
   /**
    * @param n rows, >= 1. @param size batch size, >= 1 (capped at n when unweighted).
    * @param weights row weights or null. @param rng seeded generator (advanced by draws).
    * Cost O(n) to build, O(size) (unweighted) or O(size log n) (weighted) per batch.
-   * @example new BatchSampler(5, 2, null, makePrng(1)).next() // two distinct row indices
+   * @example new BatchSampler(5, 2, null, new Random(1)).next() // two distinct row indices
    */
-  constructor(n: number, size: number, weights: Float64Array | null, rng: Prng) {
+  constructor(n: number, size: number, weights: Float64Array | null, rng: Random) {
     this.n = n;
     this.rng = rng;
     this.size = weights ? size : Math.min(size, n);
@@ -54,7 +54,7 @@ export class BatchSampler {
       const c = this.cumulative;
       const total = c[this.n - 1];
       for (let b = 0; b < this.size; b++) {
-        const u = this.rng.next() * total;
+        const u = this.rng.uniform() * total;
         let lo = 0;
         let hi = this.n - 1;
         while (lo < hi) {
@@ -77,7 +77,7 @@ export class BatchSampler {
   private shuffle(): void {
     const o = this.order;
     for (let i = this.n - 1; i > 0; i--) {
-      const j = this.rng.below(i + 1);
+      const j = this.rng.int(i + 1);
       const t = o[i];
       o[i] = o[j];
       o[j] = t;

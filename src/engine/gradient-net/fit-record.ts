@@ -4,7 +4,7 @@ import { energyDistance } from '../stats/energy-distance';
 import { ksStatistic } from '../stats/ks';
 import type { Frame } from './fitted-map';
 import { Float64Network } from './float64-network';
-import { smallestEigenvalue } from './jacobi-eigen';
+import { smallestEigenvalue } from '../stats/smallest-eigenvalue';
 import type { NetworkParams } from './network-params';
 import type { TrainResult } from './train';
 

@@ -1,6 +1,6 @@
-import { symmetricEigen, symmetricFunction } from './jacobi-eigen';
+import { spectralFunction, symmetricEigen } from '../stats/symmetric-eigen';
 import type { NetworkParams } from './network-params';
-import type { Prng } from './prng';
+import type { Random } from '../stats/random';
 
 /**
  * The warm start: the network's linear part is set to the optimal linear map
@@ -16,25 +16,23 @@ import type { Prng } from './prng';
  * @param linear A, symmetric positive definite d x d (row-major).
  * @param rng seeded generator (advanced). @param opts.weightScale > 0 (default 1.5);
  *   opts.share > 0 (default 0.1).
- * @example initialParams(2, 64, 1, Float64Array.of(1, 0, 0, 1), makePrng(0)).alpha // 0.5
+ * @example initialParams(2, 64, 1, Float64Array.of(1, 0, 0, 1), new Random(0)).alpha // 0.5
  */
 export function initialParams(
   d: number,
   hidden: number,
   layers: number,
   linear: Float64Array,
-  rng: Prng,
+  rng: Random,
   opts: { weightScale?: number; share?: number } = {},
 ): NetworkParams {
   const weightScale = opts.weightScale ?? 1.5;
   const share = opts.share ?? 0.1;
-  const { values } = symmetricEigen(linear, d);
-  let lo = Infinity;
-  for (const v of values) lo = Math.min(lo, v);
+  const lo = symmetricEigen(linear, d).values[0];
   const alpha = Math.max(lo / 2, 1e-6);
   const shifted = Float64Array.from(linear);
   for (let i = 0; i < d; i++) shifted[i * d + i] -= alpha;
-  const v = symmetricFunction(shifted, d, (l) => Math.sqrt(Math.max(l, 0)));
+  const v = spectralFunction(symmetricEigen(shifted, d), (l) => Math.sqrt(Math.max(l, 0)));
   const w = new Float64Array(hidden * d);
   const sd = weightScale / Math.sqrt(d);
   for (let i = 0; i < w.length; i++) w[i] = sd * rng.normal();

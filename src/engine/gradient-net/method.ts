@@ -6,9 +6,9 @@ import type { Settings } from '../settings';
 import type { BackendName } from './backend';
 import { fitRecordOf } from './fit-record';
 import { GradientNetMap, type Frame } from './fitted-map';
-import { covarianceOf, gaussianLinearMap } from './gaussian-linear-map';
+import { gaussianLinearMap } from './gaussian-linear-map';
 import { initialParams } from './initial-params';
-import { makePrng } from './prng';
+import { Random } from './../stats/random';
 import { GRADIENT_NET_SETTINGS } from './settings';
 import { standardise, standardiserOf } from './standardise';
 import { trainGradientNet } from './train';
@@ -37,8 +37,8 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
   const ts = standardiserOf(target);
   const xs = standardise(source.data, d, ss);
   const ys = standardise(target.data, d, ts);
-  const linear = gaussianLinearMap(covarianceOf(xs, source.n, d, source.weights), covarianceOf(ys, target.n, d, target.weights), d);
-  const start = initialParams(d, hidden, layers, linear, makePrng(seed));
+  const linear = gaussianLinearMap({ n: source.n, d, data: xs }, source.weights, { n: target.n, d, data: ys }, target.weights);
+  const start = initialParams(d, hidden, layers, linear, new Random(seed));
   const result = await trainGradientNet(
     { n: source.n, d, data: xs, weights: source.weights },
     { n: target.n, d, data: ys, weights: target.weights },

@@ -5,7 +5,7 @@ import { activateBackend, exclusive, type BackendName } from './backend';
 import { BatchSampler, gatherRows } from './batch-sampler';
 import type { NetworkParams } from './network-params';
 import { PlateauDetector } from './plateau';
-import { makePrng } from './prng';
+import { Random } from './../stats/random';
 import { batchSinkhorn, type BatchSinkhornSetup } from './batch-sinkhorn';
 import { Float64Network } from './float64-network';
 import { TensorNetwork, paramsFromFlat } from './tensor-network';
@@ -88,7 +88,7 @@ async function train(source: TrainData, target: TrainData, start: NetworkParams,
   const { backend, fallback } = await activateBackend(opts.backend);
   const t0 = Date.now();
   const d = source.d;
-  const rng = makePrng(opts.seed ^ 0x5bd1e995);
+  const rng = new Random(opts.seed ^ 0x5bd1e995);
   const sizeX = opts.batch > 0 ? opts.batch : source.n;
   const sizeY = opts.batch > 0 ? opts.batch : target.n;
   const sx = new BatchSampler(source.n, sizeX, source.weights, rng);

@@ -1,6 +1,6 @@
 import { barycentricMap } from '../../../src/engine/entropic/barycentric-map';
 import { mapJacobian, minJacobianEigenvalue } from '../../../src/engine/entropic/map-jacobian';
-import { smallestEigenvalue } from '../../../src/engine/entropic/smallest-eigenvalue';
+import { smallestEigenvalue } from '../../../src/engine/stats/smallest-eigenvalue';
 import type { Points } from '../../../src/engine/points';
 
 function rows(n: number, d: number, seed: number): Points {

@@ -1,8 +1,8 @@
 import { batchSinkhorn, epsSchedule, softminRows, squaredDistanceMatrix } from '../../../src/engine/gradient-net/batch-sinkhorn';
-import { makePrng } from '../../../src/engine/gradient-net/prng';
+import { Random } from '../../../src/engine/stats/random';
 
 const cloud = (n: number, d: number, seed: number, shift = 0) => {
-  const r = makePrng(seed);
+  const r = new Random(seed);
   return Float64Array.from({ length: n * d }, () => r.normal() + shift);
 };
 

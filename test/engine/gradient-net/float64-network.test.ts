@@ -1,7 +1,7 @@
 import * as tf from '@tensorflow/tfjs';
 import { Float64Network } from '../../../src/engine/gradient-net/float64-network';
-import { smallestEigenvalue } from '../../../src/engine/gradient-net/jacobi-eigen';
-import { makePrng } from '../../../src/engine/gradient-net/prng';
+import { smallestEigenvalue } from '../../../src/engine/stats/smallest-eigenvalue';
+import { Random } from '../../../src/engine/stats/random';
 import { TensorNetwork } from '../../../src/engine/gradient-net/tensor-network';
 import { randomParams } from './helpers';
 
@@ -16,7 +16,7 @@ describe('Float64Network: F is the gradient of a strongly convex function', () =
       const d = 3;
       const p = randomParams(d, 12, layers, 5 + layers);
       const net = new Float64Network(p);
-      const rng = makePrng(layers);
+      const rng = new Random(layers);
       const jac = new Float64Array(d * d);
       const fp = new Float64Array(d);
       const fm = new Float64Array(d);
@@ -44,7 +44,7 @@ describe('Float64Network: F is the gradient of a strongly convex function', () =
       const p = randomParams(d, 12, layers, 50 + layers);
       const f64 = new Float64Network(p);
       const tnet = new TensorNetwork(p);
-      const rng = makePrng(9);
+      const rng = new Random(9);
       const x = Float64Array.from({ length: d }, () => rng.normal());
       const v = Float64Array.from({ length: d }, () => rng.normal());
       const [fx, grad] = tf.tidy(() => {

@@ -1,21 +1,36 @@
 import { inv, matrix, multiply, sqrtm } from 'mathjs';
-import { covarianceOf, gaussianLinearMap } from '../../../src/engine/gradient-net/gaussian-linear-map';
+import { gaussianLinearMap } from '../../../src/engine/gradient-net/gaussian-linear-map';
+import { points } from '../../../src/engine/points';
+import { Random } from '../../../src/engine/stats/random';
+
+/** Covariance with divisor n, by the textbook two-pass formula. */
+function cov(rows: number[][]): number[][] {
+  const n = rows.length;
+  const d = rows[0].length;
+  const m = Array.from({ length: d }, (_, k) => rows.reduce((s, r) => s + r[k], 0) / n);
+  return Array.from({ length: d }, (_, i) => Array.from({ length: d }, (_, j) => rows.reduce((s, r) => s + (r[i] - m[i]) * (r[j] - m[j]), 0) / n));
+}
 
 describe('gaussianLinearMap', () => {
+  test('of samples with covariances diag(1/2, 1/2) and diag(2, 9/2) is diag(2, 3)', () => {
+    // Source: closed form, commuting case: A = (S^-1 T)^1/2 = diag(sqrt(4), sqrt(9))
+    const a = gaussianLinearMap(points([[1, 0], [-1, 0], [0, 1], [0, -1]]), null, points([[2, 0], [-2, 0], [0, 3], [0, -3]]), null);
+    expect(Array.from(a).map((v) => Number(v.toFixed(6)))).toEqual([2, 0, 0, 3]);
+  });
+
   test('matches S^-1/2 (S^1/2 T S^1/2)^1/2 S^-1/2 computed with mathjs sqrtm and pushes S onto T', () => {
-    const S = [[2, 0.5], [0.5, 1]];
-    const T = [[1, -0.3], [-0.3, 3]];
-    const a = gaussianLinearMap(Float64Array.from(S.flat()), Float64Array.from(T.flat()), 2);
+    const r = new Random(5);
+    const src = Array.from({ length: 200 }, () => { const u = r.normal(); return [u, 0.5 * u + r.normal()]; });
+    const tgt = Array.from({ length: 150 }, () => { const u = r.normal(); return [2 * u, -u + 0.3 * r.normal()]; });
+    const a = gaussianLinearMap(points(src), null, points(tgt), null);
+    const S = cov(src);
+    const T = cov(tgt);
     const sh = sqrtm(matrix(S));
     const shi = inv(sh);
     const ref = multiply(multiply(shi, sqrtm(multiply(multiply(sh, matrix(T)), sh))), shi).toArray() as number[][]; // Source: mathjs sqrtm
-    for (let i = 0; i < 2; i++) for (let k = 0; k < 2; k++) expect(a[i * 2 + k]).toBeCloseTo(ref[i][k], 8);
-    const ama = multiply(multiply([[a[0], a[1]], [a[2], a[3]]], S), [[a[0], a[1]], [a[2], a[3]]]) as number[][];
-    for (let i = 0; i < 2; i++) for (let k = 0; k < 2; k++) expect(ama[i][k]).toBeCloseTo(T[i][k], 8); // Source: A S A = T
-  });
-
-  test('covarianceOf uses the total weight as divisor', () => {
-    const c = covarianceOf(Float64Array.of(0, 2), 2, 1, null);
-    expect(c[0]).toBe(1); // Source: ((0-1)^2 + (2-1)^2) / 2
+    for (let i = 0; i < 2; i++) for (let k = 0; k < 2; k++) expect(a[i * 2 + k]).toBeCloseTo(ref[i][k], 6);
+    const A = [[a[0], a[1]], [a[2], a[3]]];
+    const ama = multiply(multiply(A, S), A) as number[][];
+    for (let i = 0; i < 2; i++) for (let k = 0; k < 2; k++) expect(ama[i][k]).toBeCloseTo(T[i][k], 6); // Source: A S A = T (Olkin & Pukelsheim 1982)
   });
 });

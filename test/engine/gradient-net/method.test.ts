@@ -2,7 +2,7 @@ import * as tf from '@tensorflow/tfjs';
 import { sqrtm, multiply, inv, matrix } from 'mathjs';
 import { gradientNetMethod } from '../../../src/engine/gradient-net/method';
 import { GradientNetMap } from '../../../src/engine/gradient-net/fitted-map';
-import { makePrng } from '../../../src/engine/gradient-net/prng';
+import { Random } from '../../../src/engine/stats/random';
 import { isRemapError } from '../../../src/engine/errors';
 import { resolveSettings, COMMON_SETTINGS } from '../../../src/engine/settings';
 import type { Sample } from '../../../src/engine/points';
@@ -12,7 +12,7 @@ const settingsOf = (raw: Record<string, unknown>) => resolveSettings('gradient-n
 
 /** n rows of N(mean, L L^T) with L lower-triangular 2 x 2. */
 function gaussian(n: number, mean: number[], l: number[][], seed: number): Sample {
-  const r = makePrng(seed);
+  const r = new Random(seed);
   const data = new Float64Array(n * 2);
   for (let i = 0; i < n; i++) {
     const z0 = r.normal();

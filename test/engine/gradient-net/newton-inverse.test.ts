@@ -1,6 +1,6 @@
 import { Float64Network } from '../../../src/engine/gradient-net/float64-network';
 import { newtonInverse } from '../../../src/engine/gradient-net/newton-inverse';
-import { makePrng } from '../../../src/engine/gradient-net/prng';
+import { Random } from '../../../src/engine/stats/random';
 import { randomParams } from './helpers';
 
 describe('newtonInverse solves F(x) = y', () => {
@@ -9,7 +9,7 @@ describe('newtonInverse solves F(x) = y', () => {
       const d = 4;
       const p = { ...randomParams(d, 32, layers, 20 + layers), alpha: 0.01 };
       const net = new Float64Network(p);
-      const rng = makePrng(8);
+      const rng = new Random(8);
       const y = new Float64Array(d);
       const x = new Float64Array(d);
       for (let rep = 0; rep < 50; rep++) {

@@ -1,6 +1,6 @@
 import * as tf from '@tensorflow/tfjs';
 import { batchSinkhorn } from '../../../src/engine/gradient-net/batch-sinkhorn';
-import { makePrng } from '../../../src/engine/gradient-net/prng';
+import { Random } from '../../../src/engine/stats/random';
 import { sinkhornDivergenceAt, sinkhornPotentials } from '../../../src/engine/gradient-net/sinkhorn-divergence';
 
 beforeAll(async () => {
@@ -10,7 +10,7 @@ beforeAll(async () => {
 
 describe('tfjs Sinkhorn divergence (the bench comparison)', () => {
   test('gives the same value and gradient as the float64 version, to float32 accuracy', () => {
-    const r = makePrng(3);
+    const r = new Random(3);
     const x = Float64Array.from({ length: 40 }, () => r.normal());
     const y = Float64Array.from({ length: 50 }, () => r.normal() + 0.5);
     const setup = { blur: 0.5, diameter2: 40, iterations: 10 };

@@ -1,5 +1,5 @@
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix';
-import { smallestEigenvalue } from '../../../src/engine/entropic/smallest-eigenvalue';
+import { smallestEigenvalue } from '../../../src/engine/stats/smallest-eigenvalue';
 
 function rng(seed: number): () => number {
   let s = seed >>> 0;
@@ -31,5 +31,12 @@ describe('smallest-eigenvalue', () => {
     const a = Float64Array.of(4, 1, 1, 3);
     smallestEigenvalue(a, 2);
     expect(Array.from(a)).toEqual([4, 1, 1, 3]);
+  });
+});
+
+describe('smallestEigenvalue of a non-symmetric Jacobian', () => {
+  test('uses the symmetric part: [[1, 4], [0, 1]] has symmetric part [[1, 2], [2, 1]], eigenvalues -1 and 3', () => {
+    // Source: hand computation, eigenvalues of [[1, 2], [2, 1]] are 1 +- 2
+    expect(smallestEigenvalue(Float64Array.of(1, 4, 0, 1), 2)).toBeCloseTo(-1, 14);
   });
 });
