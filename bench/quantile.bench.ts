@@ -15,20 +15,12 @@
 import { prepareFit } from '../src/engine/methods';
 import type { Sample } from '../src/engine/points';
 import { quantileMethod } from '../src/engine/quantile/quantile-method';
+import { Random } from '../src/engine/stats/random';
 
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 function normals(n: number, seed: number, mean: number, sd: number, lognormal = false): Float64Array {
-  const r = mulberry32(seed);
+  const random = new Random(seed);
+  const r = () => random.uniform();
   const out = new Float64Array(n);
   for (let i = 0; i < n; i += 2) {
     const u = Math.max(r(), 1e-300);

@@ -1,5 +1,6 @@
 import { RemapError } from '../errors';
 import type { Points } from '../points';
+import { Random } from '../stats/random';
 
 /** The outcome of `twoCycleCheck`. */
 export interface TwoCycleReport {
@@ -32,7 +33,7 @@ const DEFAULT_SEED = 20240607;
  * rounding means the matching is not optimal.
  *
  * All pairs are checked when n(n-1)/2 <= maxPairs; otherwise maxPairs pairs
- * are drawn with a seeded generator (mulberry32), so the report is reproducible.
+ * are drawn with a seeded generator (stats/random.ts), so the report is reproducible.
  *
  * Cost: O(min(n^2, maxPairs) d) time, O(1) extra memory.
  *
@@ -97,10 +98,10 @@ export function twoCycleCheck(
       }
     }
   } else {
-    const next = mulberry32(options.seed ?? DEFAULT_SEED);
+    const random = new Random(options.seed ?? DEFAULT_SEED);
     while (pairs < maxPairs) {
-      const i = Math.floor(next() * n);
-      const j = Math.floor(next() * n);
+      const i = random.int(n);
+      const j = random.int(n);
       if (i === j) continue; // n >= 2 here, so this ends (expected extra draws 1/(n-1) per pair)
       const s = value(i, j);
       pairs++;
@@ -130,16 +131,4 @@ function squaredDiameter(a: Points, b: Points): number {
     if (hi > lo) s += (hi - lo) * (hi - lo);
   }
   return s;
-}
-
-/** Mulberry32: a small seeded generator of uniform numbers in [0, 1) (public-domain, by Tommy Ettinger). */
-function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
