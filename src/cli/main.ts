@@ -5,7 +5,7 @@ import { parseMapJSON } from '../engine/map-json';
 import { getMethod, listMethods, restoreMap, startFit } from '../engine/methods';
 import { parseSettingsText } from '../engine/settings';
 import '../engine/registry';
-import type { CellIn } from '../functions/cells';
+import { CellError, type CellIn } from '../functions/cells';
 import { readSample, readValues, writeValues, type ReadSample } from '../functions/coerce';
 import { csvCell, formatCSV, parseCSV } from './csv';
 
@@ -59,7 +59,7 @@ function parseArgs(argv: readonly string[]): { command: string; flags: Record<st
   const flags: Record<string, string> = Object.create(null);
   for (let i = 0; i < rest.length; i++) {
     const a = rest[i];
-    if (!a.startsWith('--')) throw new UsageError(`unexpected "${a}"; options look like --name value.`);
+    if (!a.startsWith('--')) throw new UsageError(`unexpected "${a}"; write options as --name value.`);
     const eq = a.indexOf('=');
     const name = eq > 0 ? a.slice(2, eq) : a.slice(2);
     if (!spec.flags.includes(name)) {
@@ -68,10 +68,10 @@ function parseArgs(argv: readonly string[]): { command: string; flags: Record<st
     let value: string;
     if (eq > 0) value = a.slice(eq + 1);
     else {
-      if (i + 1 >= rest.length || rest[i + 1].startsWith('--')) throw new UsageError(`--${name} needs a value.`);
+      if (i + 1 >= rest.length || rest[i + 1].startsWith('--')) throw new UsageError(`--${name} needs a value; give one, as in --${name} value.`);
       value = rest[++i];
     }
-    if (name in flags) throw new UsageError(`--${name} is given twice.`);
+    if (name in flags) throw new UsageError(`--${name} is given twice; give it once.`);
     flags[name] = value;
   }
   return { command, flags };
@@ -110,7 +110,7 @@ function readTable(io: CliIO, path: string): Table {
 
 function columnIndex(t: Table, col: string, what: string): number {
   const k = t.header.indexOf(col.trim());
-  if (k < 0) throw new RemapError(`${t.name} has no column "${col}" (${what}); its columns are ${t.header.join(', ')}.`);
+  if (k < 0) throw new RemapError(`${t.name} has no column "${col}" (${what}); its columns are ${t.header.join(', ')}; pick one of those.`);
   return k;
 }
 
@@ -213,8 +213,8 @@ function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'i
   for (let i = 0; i < cells.length; i++) {
     for (let j = 0; j < cols.length; j++) {
       const v = cells[i][j];
-      if (typeof v === 'string') throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: "${v}" is not a number; only numbers (or blanks) can be mapped.`);
-      if (typeof v === 'number' && !Number.isFinite(v)) throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: ${v} is not a finite number.`);
+      if (typeof v === 'string') throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: "${v}" is not a number; only numbers (or blanks) can be mapped: replace it or clear the field.`);
+      if (typeof v === 'number' && !Number.isFinite(v)) throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: ${v} is not a finite number; replace it with a number or clear the field.`);
     }
   }
   const fn = `remap ${command}`;
@@ -226,6 +226,8 @@ function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'i
     const row = t.rows[i].map((v) => (v === null ? null : (v as string | number)));
     for (let j = 0; j < cols.length; j++) {
       const g = grid[i][j];
+      // A per-cell error (a result that overflows) must not leave the unmapped input in its place.
+      if (g instanceof CellError) throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: ${g.message}`, g.kind === 'value' ? 'value' : 'num');
       row[cols[j]] = typeof g === 'number' ? g : g === '' ? null : row[cols[j]];
     }
     out.push(row);
@@ -236,6 +238,11 @@ function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'i
   if (mapped.outside > 0) {
     io.stderr(`remap: warning: ${mapped.outside} of ${mapped.n} rows lay outside the range the map was fitted on; their values are extrapolated (${String(map.diagnostics().settings.tails ?? 'clamp')}).\n`);
   }
+}
+
+/** A message on one line: names read from files (quoted CSV headers) may hold line breaks. */
+function oneLine(message: string): string {
+  return message.replace(/\s*[\r\n]+\s*/g, ' ');
 }
 
 /** Runs one command; returns the process exit code. */
@@ -297,17 +304,17 @@ export async function main(argv: readonly string[], io: CliIO): Promise<number> 
   } catch (e) {
     if (e instanceof UsageError) {
       if (e.message) {
-        io.stderr(`remap: ${e.message}\n`);
+        io.stderr(`remap: ${oneLine(e.message)}\n`);
         return 2;
       }
       io.stdout(usage() + '\n');
       return argv.length === 0 ? 2 : 0;
     }
     if (isRemapError(e)) {
-      io.stderr(`remap: ${e.message}\n`);
+      io.stderr(`remap: ${oneLine(e.message)}\n`);
       return 1;
     }
-    io.stderr(`remap: unexpected problem${command ? ` in ${command}` : ''}: ${(e as Error)?.message ?? String(e)}\n`);
+    io.stderr(`remap: unexpected problem${command ? ` in ${command}` : ''}: ${oneLine(String((e as Error)?.message ?? e))}\n`);
     return 1;
   }
 }

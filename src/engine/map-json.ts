@@ -9,8 +9,8 @@ const FORBIDDEN_KEYS = new Set(['__proto__', 'constructor', 'prototype']);
 
 /**
  * Reads map JSON text (from REMAP.LOAD, a file or the workbook store) and checks
- * its envelope: size, format tag, version, a known method, the shape fields and
- * that every number in it is finite. The method's own fromJSON then checks its
+ * its envelope: size, format tag, version, a known method, the shape fields, the
+ * fit record's fields (shown as they are by reports) and that every number in it is finite. The method's own fromJSON then checks its
  * parameters. The text is parsed as data with JSON.parse only, never evaluated;
  * keys that could reach an object's prototype are refused.
  * Cost: O(length of text).
@@ -58,11 +58,39 @@ export function checkMapJSON(raw: unknown): MapJSON {
     if (!isPlainObject(v) || !isCount(v.source) || !isCount(v.target)) bad(`"${f}" is not a pair of row counts`);
   }
   if (!isPlainObject(o.fitted)) bad('"fitted" is missing');
-  const fitted = o.fitted as Record<string, unknown>;
-  if (!isPlainObject(fitted.cost) || typeof (fitted.cost as Record<string, unknown>).w2Squared !== 'number') bad('"fitted.cost" is missing');
-  if (!Array.isArray(fitted.warnings)) bad('"fitted.warnings" is not a list');
+  checkFitRecord(o.fitted as Record<string, unknown>, bad);
   checkAllFinite(raw, 0);
   return raw as MapJSON;
+}
+
+const COST_KINDS = new Set(['exact-1d', 'per-column-1d', 'bures', 'assignment', 'sinkhorn-divergence', 'mapped']);
+const OPTIONAL_FIGURES = ['energyBefore', 'energyAfter', 'ksMaxAfter', 'minJacobianEigenvalue'] as const;
+
+/**
+ * The fit record is shown as it is (REMAP.REPORT, `remap report`), so every field
+ * must have the type the report expects: a cost with a known kind, numbers where
+ * numbers go, text where text goes, warnings with code, message and action.
+ */
+function checkFitRecord(fitted: Record<string, unknown>, bad: (what: string) => never): void {
+  const cost = fitted.cost as Record<string, unknown>;
+  if (!isPlainObject(cost) || typeof cost.w2Squared !== 'number') bad('"fitted.cost" is missing');
+  if (!COST_KINDS.has(cost.kind as string)) bad('"fitted.cost.kind" is not a kind of cost Remap reports');
+  if (!((cost.w2Squared as number) >= 0) || typeof cost.w2 !== 'number' || !((cost.w2 as number) >= 0)) bad('"fitted.cost" does not hold a squared W2 and W2 of at least 0');
+  if (cost.w1 !== undefined && typeof cost.w1 !== 'number') bad('"fitted.cost.w1" is not a number');
+  if (cost.perColumn !== undefined && !(Array.isArray(cost.perColumn) && cost.perColumn.every((v) => typeof v === 'number'))) bad('"fitted.cost.perColumn" is not a list of numbers');
+  if (typeof cost.note !== 'string') bad('"fitted.cost.note" is not text');
+  for (const f of OPTIONAL_FIGURES) if (fitted[f] !== undefined && typeof fitted[f] !== 'number') bad(`"fitted.${f}" is not a number`);
+  const c = fitted.convergence as Record<string, unknown> | undefined;
+  if (c !== undefined) {
+    if (!isPlainObject(c) || !isCount(c.iterations) || typeof c.finalError !== 'number' || typeof c.converged !== 'boolean' || typeof c.criterion !== 'string') {
+      bad('"fitted.convergence" does not hold iterations, finalError, converged and criterion');
+    }
+  }
+  if (!Array.isArray(fitted.warnings)) bad('"fitted.warnings" is not a list');
+  for (const w of fitted.warnings as unknown[]) {
+    const r = w as Record<string, unknown>;
+    if (!isPlainObject(r) || typeof r.code !== 'string' || typeof r.message !== 'string' || typeof r.action !== 'string') bad('a warning in "fitted.warnings" lacks its code, message or action');
+  }
 }
 
 function isPlainObject(v: unknown): v is Record<string, unknown> {

@@ -136,7 +136,7 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
       const k = cellKind(wv);
       if (k === 'number') {
         w = wv as number;
-        if (w < 0) throw new RemapError(`${fn}: the ${opts.weightsName ?? name + ' weights'} in row ${sheetRow} is negative (${w}); weights must be zero or positive.`);
+        if (w < 0) throw new RemapError(`${fn}: the ${opts.weightsName ?? name + ' weights'} in row ${sheetRow} is negative (${w}); weights must be zero or positive: replace it.`);
       } else if (k === 'non-finite') {
         throw new RemapError(`${fn}: the ${opts.weightsName ?? name + ' weights'} in row ${sheetRow} is not a finite number (${describeCell(wv)}); replace it with a number.`);
       } else {
@@ -268,13 +268,18 @@ function pointReason(v: CellIn): CellOut | null {
     case 'blank':
       return '';
     case 'non-finite':
-      return new CellError('num', `Not a finite number: ${describeCell(v)}.`);
+      return new CellError('num', `Not a finite number: ${describeCell(v)}; replace it with a number or clear the cell.`);
     default:
-      return new CellError('value', `Not a number: ${describeCell(v)}; only numbers can be mapped.`);
+      return new CellError('value', `Not a number: ${describeCell(v)}; only numbers can be mapped: replace it with a number or clear the cell.`);
   }
 }
 
-/** Puts mapped points back in the shape `readValues` read them from. O(cells). */
+/**
+ * Puts mapped points back in the shape `readValues` read them from. A mapped
+ * value that is not finite (a map whose result overflows, e.g. tails=linear
+ * far outside the fitted range) becomes a #NUM! error in its place, never a
+ * number a spreadsheet would show as something else. O(cells).
+ */
 export function writeValues(mapped: Points, layout: ValuesLayout): Grid {
   const out: Grid = [];
   if (layout.d === 1) {
@@ -282,7 +287,7 @@ export function writeValues(mapped: Points, layout: ValuesLayout): Grid {
       const row: CellOut[] = new Array(layout.cols);
       for (let j = 0; j < layout.cols; j++) {
         const s = layout.slots[i * layout.cols + j];
-        row[j] = s >= 0 ? mapped.data[s] : (layout.reasons[i * layout.cols + j] as CellOut);
+        row[j] = s >= 0 ? finiteOrError(mapped.data[s]) : (layout.reasons[i * layout.cols + j] as CellOut);
       }
       out.push(row);
     }
@@ -291,10 +296,21 @@ export function writeValues(mapped: Points, layout: ValuesLayout): Grid {
   const d = layout.d;
   for (let i = 0; i < layout.rows; i++) {
     const s = layout.slots[i];
-    if (s >= 0) out.push(Array.from(mapped.data.subarray(s * d, (s + 1) * d)));
-    else out.push(new Array(d).fill(layout.reasons[i]));
+    if (s >= 0) {
+      const row: CellOut[] = Array.from(mapped.data.subarray(s * d, (s + 1) * d));
+      if (!row.every((v) => Number.isFinite(v))) row.fill(notFinite(row.find((v) => !Number.isFinite(v)) as number));
+      out.push(row);
+    } else out.push(new Array(d).fill(layout.reasons[i]));
   }
   return out;
+}
+
+function finiteOrError(v: number): CellOut {
+  return Number.isFinite(v) ? v : notFinite(v);
+}
+
+function notFinite(v: number): CellError {
+  return new CellError('num', `The mapped value is not a finite number (${v}): it overflows. Rescale the data, or use tails=clamp for values far outside the fitted range.`);
 }
 
 /**

@@ -11,6 +11,7 @@ import { compareFit } from '../assess';
 import { covarianceCondition, ILL_CONDITIONED_RATIO } from './covariance-condition';
 import { gaussianTransport } from './gaussian-transport';
 import { LinearMap } from './linear-map';
+import { checkLinearScale } from './scale-check';
 
 export interface LinearFitOptions {
   /** Record energy distances and the KS statistic at fit time (default true; off only for timing the map itself). */
@@ -42,7 +43,8 @@ export interface LinearFitOptions {
  * @param source, target validated samples with the same d (finite values, weights checked; prepareFit does this).
  * @param settings resolved settings; `ridge` a number >= 0.
  * @param ctx dropped rows and column names for the diagnostics.
- * @throws RemapError for a negative ridge, or a singular source or target covariance (message says which and what to do).
+ * @throws RemapError for a negative ridge, a singular source or target covariance (message says which and what to do),
+ *   or (kind 'num') data or a ridge too small or too large for double precision (see checkLinearScale).
  * @example fitLinear(sample([1, 2, 3]), sample([10, 20, 30]), { ridge: 0 }).apply(column([2])).data // [20]
  */
 export function fitLinear(source: Sample, target: Sample, settings: Settings, ctx: FitContext = {}, options: LinearFitOptions = {}): LinearMap {
@@ -57,12 +59,16 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
 
   const mom1 = weightedMoments(source, source.weights);
   const mom2 = weightedMoments(target, target.weights);
+  const r1 = columnRanges(source, source.weights);
+  const r2 = columnRanges(target, target.weights);
+  checkLinearScale(diagonal(mom1.cov, d), diagonal(mom2.cov, d), varies(r1), varies(r2), fn);
   const cov1 = Float64Array.from(mom1.cov);
   const cov2 = Float64Array.from(mom2.cov);
   for (let k = 0; k < d; k++) {
     cov1[k * d + k] += ridge;
     cov2[k * d + k] += ridge;
   }
+  if (ridge > 0) checkLinearScale(diagonal(cov1, d), diagonal(cov2, d), varies(r1), varies(r2), fn);
   const eig1 = symmetricEigen(cov1, d);
   const ratio1 = covarianceCondition(eig1, cov1, { which: 'source', columns, rows: positiveRows(source), ridge, fn });
   const eig2 = symmetricEigen(cov2, d);
@@ -81,8 +87,6 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
       (ridge > 0 ? `, and the covariances include the ridge ${ridge}.` : '.'),
   };
 
-  const r1 = columnRanges(source, source.weights);
-  const r2 = columnRanges(target, target.weights);
   const header: MapHeader = {
     method: 'linear',
     d,
@@ -125,6 +129,16 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
     targetMin: r2.min,
     targetMax: r2.max,
   });
+}
+
+function diagonal(cov: ArrayLike<number>, d: number): Float64Array {
+  const out = new Float64Array(d);
+  for (let k = 0; k < d; k++) out[k] = cov[k * d + k];
+  return out;
+}
+
+function varies(r: { readonly min: Float64Array; readonly max: Float64Array }): boolean[] {
+  return Array.from(r.min, (lo, k) => r.max[k] > lo);
 }
 
 function positiveRows(s: Sample): number {

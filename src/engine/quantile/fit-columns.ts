@@ -32,7 +32,8 @@ export interface ColumnRecipe {
  * slope of the fitted maps as the monotonicity certificate.
  * Cost: O(d (n log n + m log m)).
  * @param source,target validated samples with the same d (see `prepareFit`).
- * @throws RemapError from the recipe (e.g. a side with one distinct value).
+ * @throws RemapError from the recipe (e.g. a side with one distinct value), or
+ *   (kind 'num') when the cost overflows (values of size 1e154 and beyond).
  * @example fitOneColumnMap(recipe, sample([0, 1, 3]), sample([5, 6, 8]), { tails: 'clamp' }, {}).cost().w2Squared // 25
  */
 export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sample, settings: Settings, ctx: FitContext): OneColumnMap {
@@ -80,6 +81,14 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
     });
   }
   const total = w2.reduce((a, b) => a + b, 0);
+  if (!Number.isFinite(total) || (d === 1 && !Number.isFinite(w1))) {
+    // Values near 1e154 or beyond: the squared distances overflow. A cost of Infinity would be
+    // shown as a number (and lost in the saved JSON), so refuse, as the linear and pairs fits do.
+    throw new RemapError(
+      `fit (${recipe.method}): the squared distances between source and target values are too large to represent (the cost overflows); rescale the columns (for example to thousands or millions) and fit again.`,
+      'num',
+    );
+  }
   const cost: CostReport =
     d === 1
       ? {

@@ -21,10 +21,21 @@ export function hazenGrid(cdf: WeightedCdf): ShareGrid {
   const p = new Float64Array(k);
   const twoW = 2 * cdf.total;
   let prev = 0;
-  for (let i = 0; i < k; i++) {
-    const c = cdf.cumulative[i];
-    p[i] = (prev + c) / twoW;
-    prev = c;
+  if (Number.isFinite(twoW)) {
+    for (let i = 0; i < k; i++) {
+      const c = cdf.cumulative[i];
+      p[i] = (prev + c) / twoW;
+      prev = c;
+    }
+  } else {
+    // Weights adding up to more than half the largest double: 2W (and prev + c) would overflow
+    // to Infinity and the positions to NaN, so take each half share on its own.
+    const W = cdf.total;
+    for (let i = 0; i < k; i++) {
+      const c = cdf.cumulative[i];
+      p[i] = prev / W / 2 + c / W / 2;
+      prev = c;
+    }
   }
   return { p, v: cdf.values };
 }

@@ -1,3 +1,4 @@
+import { RemapError } from '../errors';
 import type { ShareGrid } from './grid';
 
 /** Knots of a monotone piecewise-linear map: xs and ys both non-decreasing, same length. */
@@ -27,6 +28,7 @@ export interface Knots {
  * When both grids have the same shares (equal sizes and weights) the knots
  * are the grids' own value arrays, shared, not copied (nothing writes to them).
  * Cost: O(ks + kt).
+ * @throws RemapError (kind 'num') if a share is NaN (hazenGrid and the ordinal grid never give one).
  * @param src,tgt grids with at least one point each.
  * @example buildKnots(hazenGrid(cdf([1, 2])), hazenGrid(cdf([10, 30])), true) // xs [1, 2], ys [10, 30]
  */
@@ -48,9 +50,11 @@ export function buildKnots(src: ShareGrid, tgt: ShareGrid, strict: boolean): Kno
   let j = 0;
   while (i < ns && ps[i] < pLo) i++;
   while (j < nt && pt[j] < pLo) j++;
-  // Each pass consumes at least one grid point, so at most ns + nt passes.
-  while (i < ns || j < nt) {
+  // Each pass consumes at least one grid point, so at most ns + nt passes; the bound also
+  // stops a grid holding NaN (which consumes nothing) from looping for ever.
+  for (let pass = 0; (i < ns || j < nt) && pass <= ns + nt; pass++) {
     const p = Math.min(i < ns ? ps[i] : Infinity, j < nt ? pt[j] : Infinity);
+    if (!(p === p)) throw new RemapError('buildKnots: a share position is not a number (weights too large or too small to add up); rescale the weights.', 'num');
     if (p > pHi) break;
     let xa: number;
     let xb: number;
