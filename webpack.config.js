@@ -66,6 +66,29 @@ class NoEvalPlugin {
 
 const FUNCTIONS_SOURCE = './src/functions/functions.ts';
 const TASKPANE_SOURCE = './src/taskpane/taskpane.ts';
+const FIT_WORKER_SOURCE = './src/taskpane/fit-worker.ts';
+
+/**
+ * Adds top-level flags to the generated functions.json that the metadata generator does not write:
+ * allowErrorForDataTypeAny lets error cells reach our `any` parameters, where the coercion rules skip them,
+ * instead of Excel refusing to call the function. Runs after CustomFunctionsMetadataPlugin has emitted the file.
+ */
+class FunctionsMetadataFlagsPlugin {
+  constructor(options) {
+    this.options = options;
+  }
+  apply(compiler) {
+    const { file, flags } = this.options;
+    compiler.hooks.thisCompilation.tap('FunctionsMetadataFlagsPlugin', (compilation) => {
+      compilation.hooks.processAssets.tap({ name: 'FunctionsMetadataFlagsPlugin', stage: compiler.webpack.Compilation.PROCESS_ASSETS_STAGE_ADDITIONS }, () => {
+        const asset = compilation.getAsset(file);
+        if (!asset) return;
+        const metadata = JSON.parse(asset.source.source().toString());
+        compilation.updateAsset(file, new compiler.webpack.sources.RawSource(JSON.stringify({ ...flags, ...metadata, ...flags }, null, 4)));
+      });
+    });
+  }
+}
 
 /**
  * https options for the development server. office-addin-dev-certs makes a local CA and a localhost
@@ -104,7 +127,10 @@ module.exports = async (env) => {
     target: ['web', 'es2020'],
     entry: {
       functions: FUNCTIONS_SOURCE,
-      taskpane: TASKPANE_SOURCE,
+      // The pane shares the functions bundle's modules (one map store, one engine) on the shared-runtime page.
+      taskpane: { import: TASKPANE_SOURCE, dependOn: 'functions' },
+      // The pane's fits run in a worker, so the pane stays responsive and Cancel stops any method at once.
+      'fit-worker': FIT_WORKER_SOURCE,
     },
     output: {
       path: path.resolve(__dirname, 'dist'),
@@ -136,6 +162,7 @@ module.exports = async (env) => {
     plugins: [
       new NoEvalPlugin(),
       new CustomFunctionsMetadataPlugin({ output: 'functions.json', input: FUNCTIONS_SOURCE }),
+      new FunctionsMetadataFlagsPlugin({ file: 'functions.json', flags: { allowErrorForDataTypeAny: true } }),
       new HtmlWebpackPlugin({
         filename: 'taskpane.html',
         template: './src/taskpane/taskpane.html',

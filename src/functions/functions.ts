@@ -1,8 +1,11 @@
 /* Worksheet functions of the REMAP namespace. Each is JSDoc for Excel's formula
  * tooltips (functions.json is generated from it) and one guarded call into
  * calls.ts; no numeric logic lives here. */
+import '../engine/registry';
 import * as calls from './calls';
-import { guard } from './excel-errors';
+import { guard, toSheetError } from './excel-errors';
+import { setKeeper } from './store';
+import { workbookKeeper } from '../workbook/keeper';
 
 /**
  * Maps values from the source's distribution onto the target's (monotone transport map), spilled in the shape of values.
@@ -49,18 +52,23 @@ export function gausscost(mean1: any[][], cov1: any[][], mean2: any[][], cov2: a
 }
 
 /**
- * Fits a monotone transport map from source to target and returns its handle, for REMAP.APPLY, REMAP.INVERT and REMAP.REPORT.
+ * Fits a monotone transport map from source to target and returns its handle, for REMAP.APPLY, REMAP.INVERT and REMAP.REPORT. While a trained method works the cell shows its progress.
  * @customfunction FIT
+ * @streaming
+ * @requiresAddress
  * @param source The source sample.
  * @param target The target sample, with the same columns.
  * @param [method] "quantile", "step", "ordinal", "linear", "pairs", "entropic", "gradient-net" or "auto".
- * @param [settings] Settings as text, e.g. "seed=7; eps=0.05", or a two-column range of names and values.
+ * @param [settings] Settings as text, e.g. "seed=7; time_budget=300", or a two-column range of names and values.
  * @param [source_weights] One non-negative weight per source row.
  * @param [target_weights] One non-negative weight per target row.
+ * @param invocation Excel's streaming handle: progress text while fitting, then the handle.
  * @returns A handle naming the fitted map.
  */
-export function fit(source: any[][], target: any[][], method?: any, settings?: any, source_weights?: any[][], target_weights?: any[][]): string {
-  return guard(() => calls.fit(source, target, method, settings, source_weights, target_weights)) as unknown as string;
+export function fit(source: any[][], target: any[][], method?: any, settings?: any, source_weights?: any[][], target_weights?: any[][], invocation?: CustomFunctions.StreamingInvocation<string>): void {
+  // Called without Excel's invocation (tests, the headless demo): the handle is returned, or a Promise of it.
+  if (!invocation) return guard(() => calls.fit(source, target, method, settings, source_weights, target_weights)) as unknown as void;
+  calls.streamFit([source, target, method, settings, source_weights, target_weights], invocation, toSheetError);
 }
 
 /**
@@ -96,7 +104,7 @@ export function report(model: any): any[][] {
 }
 
 /**
- * A fitted map as JSON text, to keep in a cell, a file or send to a colleague; REMAP.LOAD restores it.
+ * A fitted map as JSON text, to keep in a cell, a file or send to a colleague; REMAP.LOAD restores it. Maps longer than a cell holds (32,767 characters) stay in the workbook under their handle.
  * @customfunction SAVE
  * @param model The cell holding REMAP.FIT's handle.
  * @returns The map's JSON text.
@@ -126,3 +134,6 @@ export function pairs(source: any[][], target: any[][], output?: any): any[][] {
 export function load(json: any): string {
   return guard(() => calls.load(json)) as unknown as string;
 }
+
+// In Excel, fitted maps are also kept in the workbook (src/workbook), so they outlive the session.
+if (typeof Excel !== 'undefined') setKeeper(workbookKeeper());

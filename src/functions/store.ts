@@ -12,10 +12,16 @@ import { restoreMap } from '../engine/methods';
  */
 
 export interface Keeper {
-  /** The map's JSON text for `handle`, or null if none is kept. */
+  /** The map's JSON text for `handle`, or null if none is kept. May throw (or reject) when a kept copy is damaged. */
   load(handle: string): string | null | Promise<string | null>;
   /** Keeps `json` under `handle` (may be asynchronous; failures are reported, not thrown). */
-  save(handle: string, json: string): void | Promise<void>;
+  save(handle: string, json: string, info?: KeptInfo): void | Promise<void>;
+}
+
+/** What a keeper may record beside a map, for the pane's list of maps. */
+export interface KeptInfo {
+  /** The cell whose REMAP.FIT formula made the map, e.g. "Sheet1!F2", when known. */
+  readonly cell?: string;
 }
 
 const MAX_MAPS = 64;
@@ -28,6 +34,22 @@ export function setKeeper(k: Keeper | null): void {
   keeper = k;
 }
 
+/** The keeper set by the host, or null (tests, the command line). */
+export function currentKeeper(): Keeper | null {
+  return keeper;
+}
+
+/**
+ * Remembers a map fitted elsewhere (the pane's background fit) and keeps it
+ * with the keeper, waiting until it is kept: a REMAP.FIT formula written
+ * afterwards finds it in this session or, in another runtime, in the workbook.
+ * @throws whatever the keeper's save throws, so the caller can say the map was not kept.
+ */
+export async function rememberAndKeep(handle: string, map: TransportMap, info?: KeptInfo): Promise<void> {
+  remember(handle, map);
+  if (keeper) await keeper.save(handle, JSON.stringify(map.toJSON()), info);
+}
+
 /** Builds a handle from its parts. */
 export function makeHandle(method: string, n: number, d: number, hash: string): string {
   return `remap:${method}:${n}x${d}:${hash}`;
@@ -36,6 +58,14 @@ export function makeHandle(method: string, n: number, d: number, hash: string): 
 /** True when text looks like a handle this product writes. */
 export function isHandle(text: string): boolean {
   return /^remap:[a-z-]+:\d+x\d+:[0-9a-f]+$/.test(text.trim());
+}
+
+/** The text a streaming REMAP.FIT cell shows while it works starts with this. */
+export const PROGRESS_PREFIX = 'fitting ';
+
+/** True when text is a streaming REMAP.FIT cell's progress text rather than a handle. */
+export function isProgressText(text: string): boolean {
+  return text.startsWith(PROGRESS_PREFIX);
 }
 
 /** Remembers a fitted map under its handle (most recently used last; the oldest is dropped past 64). */
@@ -76,27 +106,36 @@ export function forgetAll(): void {
  * Returns the map for `handle`, fitting it with `fit` only if neither this
  * session nor the keeper has it; concurrent requests for one handle share one fit.
  */
-export function recallOrFit(handle: string, fit: () => TransportMap | Promise<TransportMap>): TransportMap | Promise<TransportMap> {
+export function recallOrFit(handle: string, fit: () => TransportMap | Promise<TransportMap>, info?: KeptInfo): TransportMap | Promise<TransportMap> {
   const known = recall(handle);
   if (known) return known;
   const running = inflight.get(handle);
   if (running) return running;
-  const kept = keeper ? keeper.load(handle) : null;
+  let kept: string | null | Promise<string | null> = null;
+  try {
+    kept = keeper ? keeper.load(handle) : null;
+  } catch {
+    kept = null; // a damaged kept copy: fit again, and the new copy replaces it
+  }
   const finish = (json: string | null): TransportMap | Promise<TransportMap> => {
     if (json) {
-      const m = restoreMap(parseMapJSON(json));
-      remember(handle, m);
-      return m;
+      try {
+        const m = restoreMap(parseMapJSON(json));
+        remember(handle, m);
+        return m;
+      } catch {
+        /* a kept copy that no longer reads: fit again */
+      }
     }
     const r = fit();
     if (!(r instanceof Promise)) {
-      store(handle, r);
+      store(handle, r, info);
       return r;
     }
     const p = r.then(
       (m) => {
         inflight.delete(handle);
-        store(handle, m);
+        store(handle, m, info);
         return m;
       },
       (e) => {
@@ -107,14 +146,19 @@ export function recallOrFit(handle: string, fit: () => TransportMap | Promise<Tr
     inflight.set(handle, p);
     return p;
   };
-  return kept instanceof Promise ? kept.then(finish) : finish(kept);
+  return kept instanceof Promise ? kept.then(finish, () => finish(null)) : finish(kept);
 }
 
-function store(handle: string, m: TransportMap): void {
+/** The running fit for `handle`, if one is in flight in this session. */
+export function running(handle: string): Promise<TransportMap> | undefined {
+  return inflight.get(handle);
+}
+
+function store(handle: string, m: TransportMap, info?: KeptInfo): void {
   remember(handle, m);
   if (keeper) {
     try {
-      const r = keeper.save(handle, JSON.stringify(m.toJSON()));
+      const r = keeper.save(handle, JSON.stringify(m.toJSON()), info);
       if (r instanceof Promise) r.catch(() => undefined);
     } catch {
       /* keeping is best effort: the map still works in this session */
@@ -130,6 +174,9 @@ function store(handle: string, m: TransportMap): void {
 export function resolveMap(model: string, fn: string): TransportMap | Promise<TransportMap> {
   const text = String(model ?? '').trim();
   if (text.startsWith('{')) return restoreMap(parseMapJSON(text));
+  if (isProgressText(text)) {
+    throw new RemapError(`${fn}: the REMAP.FIT cell is still working ("${text.slice(0, 80)}"); this cell fills in when the fit ends.`, 'na');
+  }
   if (!isHandle(text)) {
     throw new RemapError(`${fn}: "${text.slice(0, 60)}" is not a map; give the cell holding REMAP.FIT's result or REMAP.SAVE's JSON text.`);
   }
