@@ -4,7 +4,7 @@ import type { FitContext, MapJSON, MethodName, TransportMap } from './map';
 import type { MethodSpec } from './method';
 import type { Sample } from './points';
 import { COMMON_SETTINGS, resolveSettings, type SettingSpec, type Settings } from './settings';
-import { checkSameColumns, checkSample } from './validate';
+import { checkSameColumns, checkSample, checkScale } from './validate';
 
 /** Every method the product offers, in the order menus list them. */
 const METHODS: MethodSpec[] = [];
@@ -27,7 +27,7 @@ export function listMethods(): readonly MethodSpec[] {
 export function getMethod(name: string): MethodSpec {
   const key = String(name).trim().toLowerCase();
   const m = METHODS.find((s) => s.name === key);
-  if (!m) throw new RemapError(`Unknown method "${name}". Known methods: ${METHODS.map((s) => s.name).join(', ')}.`);
+  if (!m) throw new RemapError(`Unknown method "${name}"; choose one of ${METHODS.map((s) => s.name).join(', ')}, or auto.`);
   return m;
 }
 
@@ -45,6 +45,10 @@ export function prepareFit(method: MethodSpec, source: Sample, target: Sample, r
   const min = method.minRows(source.d);
   checkSample(source, 'source', min, fn);
   checkSample(target, 'target', min, fn);
+  if (method.shape === 'joint') {
+    checkScale(source, 'source', fn);
+    checkScale(target, 'target', fn);
+  }
   if (!method.weights && (source.weights || target.weights)) {
     throw new RemapError(`${fn}: the ${method.name} method does not take row weights; leave the weights out or choose a method that takes them.`);
   }

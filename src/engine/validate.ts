@@ -47,3 +47,35 @@ export function checkSameColumns(source: Points, target: Points, fn: string): vo
     throw new RemapError(`${fn}: the source has ${source.d} column${source.d === 1 ? '' : 's'} and the target ${target.d}; give both the same columns in the same order.`);
   }
 }
+
+/** Largest |value| a method built on squared distances accepts: squares stay far below the largest double. */
+export const MAX_ABS_VALUE = 1e150;
+/** Smallest spread (max - min) of a varying column such methods accept: squares stay far above the smallest normal double. */
+export const MIN_SPREAD = 1e-140;
+
+/**
+ * Refuses data whose size methods built on squared distances (linear, pairs,
+ * entropic, gradient-net) cannot handle in double precision: a value beyond
+ * 1e150 (its square would overflow) or a column that varies by less than 1e-140
+ * (its squared spread would underflow, and every point would look alike).
+ * Cost: O(n d).
+ * @throws RemapError (kind 'num') naming the sample and column, and saying to rescale.
+ */
+export function checkScale(p: Points, name: string, fn: string): void {
+  const { n, d, data } = p;
+  for (let k = 0; k < d; k++) {
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (let i = 0; i < n; i++) {
+      const v = data[i * d + k];
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
+    }
+    if (Math.max(Math.abs(lo), Math.abs(hi)) > MAX_ABS_VALUE) {
+      throw new RemapError(`${fn}: column ${k + 1} of the ${name} holds values as large as ${(Math.abs(lo) > Math.abs(hi) ? lo : hi).toPrecision(3)}, too large to square in double precision; rescale the columns (for example to thousands or millions) and fit again.`, 'num');
+    }
+    if (hi > lo && hi - lo < MIN_SPREAD) {
+      throw new RemapError(`${fn}: column ${k + 1} of the ${name} varies by only ${(hi - lo).toPrecision(3)}, too little to square in double precision; rescale the columns (for example multiply them by 1e6) and fit again.`, 'num');
+    }
+  }
+}

@@ -58,7 +58,7 @@ describe('REMAP.VALUES', () => {
     expect(e1.code).toBe('#VALUE!');
     expect(e1.message).toMatch(/source has 2 columns and the target 1/);
     const e2 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'wibble'));
-    expect(e2.message).toMatch(/Unknown method "wibble". Known methods: quantile, step, ordinal, linear/);
+    expect(e2.message).toMatch(/Unknown method "wibble"; choose one of quantile, step, ordinal, linear/);
     const e3 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', col([1, -1, 1])));
     expect(e3.message).toMatch(/negative/);
     const e4 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', col([0, 0, 0])));

@@ -54,7 +54,7 @@ describe('REMAP functions in HyperFormula', () => {
     const unknown = hf.getCellValue({ sheet: 0, row: 0, col: 3 }) as DetailedCellError;
     expect(unknown).toBeInstanceOf(DetailedCellError);
     expect(unknown.value).toBe('#VALUE!');
-    expect(unknown.message).toMatch(/Unknown method "nope"\. Known methods: .*linear/);
+    expect(unknown.message).toMatch(/Unknown method "nope"; choose one of .*linear/);
     const missing = hf.getCellValue({ sheet: 0, row: 0, col: 4 }) as DetailedCellError;
     expect(missing.value).toBe('#N/A');
     expect(missing.message).toMatch(/no map with handle/);
