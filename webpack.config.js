@@ -154,6 +154,8 @@ module.exports = async (env) => {
               // ES modules for the bundle (tree shaking); tsconfig.json itself stays commonjs for jest and the CLI.
               compilerOptions: { module: 'es2020', sourceMap: true },
               onlyCompileBundledFiles: true,
+              // Types are checked once by `npm run typecheck` (part of `npm test`), not again per bundle.
+              transpileOnly: true,
             },
           },
         },
