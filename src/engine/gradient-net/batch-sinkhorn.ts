@@ -6,9 +6,15 @@
  *   S_eps(a, b) = OT_eps(a, b) - OT_eps(a, a)/2 - OT_eps(b, b)/2,  C(x, y) = |x - y|^2,
  *   OT_eps(a, b) = <a, f> + <b, g> at the optimal dual potentials (log domain),
  *   softmin update f_i = -eps log sum_j b_j exp((g_j - C_ij) / eps).
- * A fixed number of symmetric (averaged) updates with epsilon-scaling (eps falls
- * geometrically from the squared diameter to blur^2 over the first two thirds of
- * the iterations, then stays; Feydy's annealing), then one last extrapolation.
+ * Symmetric (averaged) updates with epsilon-scaling (eps falls geometrically from
+ * the squared diameter to blur^2 over the first two thirds of `iterations`, then
+ * stays; Feydy's annealing); then, at eps = blur^2, more updates until no
+ * potential moves by more than `tolerance` * eps in one update (at most
+ * `maxIterations` in all), then one last extrapolation. The stopping rule matters:
+ * the gradient below holds only at converged potentials (an error delta in a
+ * potential changes the plan's weights by a factor exp(delta / eps)), and a fixed
+ * small count left gradients 20-30 % off on heavy-tailed data, which trained the
+ * map away from the target (measured on the scenario demo data, batch 256, d = 3).
  *
  * Gradient by the envelope theorem (only the final potentials matter): with
  * P = the x-y plan row-normalised and Q = the x-x plan row-normalised,
@@ -23,13 +29,21 @@
  * tfjs wasm 354 ms. So: as fast as wasm, ten times faster than the cpu fallback,
  * float64, and the same on every backend (which keeps fits reproducible).
  */
+// Local aliases: a global lookup of Math inside a hot loop costs about 20 times more
+// under Jest's sandboxed global object (measured: 1e7 Math.exp calls 2.3 s, 0.1 s aliased).
+const { exp, log, abs } = Math;
+
 export interface BatchSinkhornSetup {
   /** Target blur (eps = blur^2), in the units of x and y, > 0. */
   readonly blur: number;
   /** Squared diameter bound of the clouds (start of the annealing), > 0. */
   readonly diameter2: number;
-  /** Number of Sinkhorn iterations, >= 1. */
+  /** Number of Sinkhorn iterations of the annealing, >= 1 (also the count when `tolerance` is 0 or absent). */
   readonly iterations: number;
+  /** Stop when no potential moves by more than tolerance * blur^2 in one update (>= 0; 0 or absent = fixed count). */
+  readonly tolerance?: number;
+  /** Most iterations in all when `tolerance` > 0 (>= iterations; default 10 * iterations). */
+  readonly maxIterations?: number;
 }
 
 export interface BatchSinkhornResult {
@@ -37,6 +51,8 @@ export interface BatchSinkhornResult {
   readonly value: number;
   /** dS/dx, n x d row-major. */
   readonly gradient: Float64Array;
+  /** Sinkhorn iterations run (before the last extrapolation). */
+  readonly iterations: number;
 }
 
 /** The eps schedule of `iterations` values (geometric, then flat at blur^2). O(iterations). */
@@ -90,15 +106,15 @@ export function softminRows(c: Float64Array, n: number, m: number, h: Float64Arr
     if (h) {
       for (let j = 0; j < m; j++) {
         const v = (h[j] - c[o + j] - mx) * inv;
-        if (v > -40) s += Math.exp(v);
+        if (v > -40) s += exp(v);
       }
     } else {
       for (let j = 0; j < m; j++) {
         const v = (-c[o + j] - mx) * inv;
-        if (v > -40) s += Math.exp(v);
+        if (v > -40) s += exp(v);
       }
     }
-    out[i] = -(mx + eps * (Math.log(s) - logM));
+    out[i] = -(mx + eps * (log(s) - logM));
   }
 }
 
@@ -111,7 +127,8 @@ export function transposeMatrix(c: Float64Array, n: number, m: number): Float64A
 
 /**
  * S_eps(x, y) and dS/dx for clouds x (n x d) and y (m x d), uniform weights.
- * Cost O(iterations (n + m)^2 + (n + m)^2 d) time, O((n + m)^2) memory.
+ * Cost O(iterations (n + m)^2 + (n + m)^2 d) time (iterations up to maxIterations
+ * with a tolerance), O((n + m)^2) memory.
  * @example batchSinkhorn(x, n, x, n, d, setup).value // about 0 (same cloud)
  */
 export function batchSinkhorn(x: Float64Array, n: number, y: Float64Array, m: number, d: number, setup: BatchSinkhornSetup): BatchSinkhornResult {
@@ -120,6 +137,8 @@ export function batchSinkhorn(x: Float64Array, n: number, y: Float64Array, m: nu
   const cxx = squaredDistanceMatrix(x, n, x, n, d);
   const cyy = squaredDistanceMatrix(y, m, y, m, d);
   const schedule = epsSchedule(setup);
+  const tol = setup.tolerance ?? 0;
+  const most = tol > 0 ? Math.max(schedule.length, setup.maxIterations ?? 10 * schedule.length) : schedule.length;
   let eps = schedule[0];
   let f = new Float64Array(n);
   let g = new Float64Array(m);
@@ -133,24 +152,31 @@ export function batchSinkhorn(x: Float64Array, n: number, y: Float64Array, m: nu
   let gn = new Float64Array(m);
   let pn = new Float64Array(n);
   let qn = new Float64Array(m);
-  for (let k = 1; k < schedule.length; k++) {
-    eps = schedule[k];
+  let k = 1;
+  for (; k < most; k++) {
+    eps = schedule[Math.min(k, schedule.length - 1)];
     softminRows(cxy, n, m, g, eps, fn);
     softminRows(cyx, m, n, f, eps, gn);
     softminRows(cxx, n, n, p, eps, pn);
-    softminRows(cyy, m, m, q, eps, qn);
+    // q (the y-y potential) enters only the value, not the gradient: past the annealing it is left as it is.
+    const annealing = k < schedule.length;
+    if (annealing) softminRows(cyy, m, m, q, eps, qn);
     for (let i = 0; i < n; i++) {
       fn[i] = (f[i] + fn[i]) / 2;
       pn[i] = (p[i] + pn[i]) / 2;
     }
     for (let j = 0; j < m; j++) {
       gn[j] = (g[j] + gn[j]) / 2;
-      qn[j] = (q[j] + qn[j]) / 2;
+      if (annealing) qn[j] = (q[j] + qn[j]) / 2;
     }
     [f, fn] = [fn, f];
     [g, gn] = [gn, g];
     [p, pn] = [pn, p];
-    [q, qn] = [qn, q];
+    if (annealing) [q, qn] = [qn, q];
+    if (tol > 0 && k >= schedule.length - 1 && Math.max(maxChange(f, fn), maxChange(g, gn), maxChange(p, pn)) <= tol * eps) {
+      k++;
+      break;
+    }
   }
   // Last extrapolation (no averaging): g from f, then f from g; p, q once more.
   softminRows(cyx, m, n, f, eps, gn);
@@ -163,7 +189,17 @@ export function batchSinkhorn(x: Float64Array, n: number, y: Float64Array, m: nu
   const gradient = new Float64Array(n * d);
   barycentres(cxy, n, m, gn, fn, eps, y, d, gradient, -2 / n);
   barycentres(cxx, n, n, p, pn, eps, x, d, gradient, 2 / n);
-  return { value, gradient };
+  return { value, gradient, iterations: k };
+}
+
+/** max_i |a_i - b_i|. O(n). */
+function maxChange(a: Float64Array, b: Float64Array): number {
+  let mx = 0;
+  for (let i = 0; i < a.length; i++) {
+    const e = abs(a[i] - b[i]);
+    if (e > mx) mx = e;
+  }
+  return mx;
 }
 
 /**
@@ -180,7 +216,7 @@ function barycentres(c: Float64Array, n: number, m: number, h: Float64Array, f: 
     for (let j = 0; j < m; j++) {
       const v = (f[i] + h[j] - c[o + j]) * inv;
       if (v < -40) continue; // weight below 4e-18 of a row that sums to 1
-      const w = Math.exp(v) / m;
+      const w = exp(v) / m;
       total += w;
       const zo = j * d;
       for (let k = 0; k < d; k++) row[k] += w * z[zo + k];

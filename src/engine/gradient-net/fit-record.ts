@@ -1,7 +1,6 @@
 import type { CostReport, Convergence, FitRecord, Warning } from '../map';
 import type { Sample } from '../points';
-import { energyDistance } from '../stats/energy-distance';
-import { ksStatistic } from '../stats/ks';
+import { compareFit } from '../assess';
 import type { Frame } from './fitted-map';
 import { Float64Network } from './float64-network';
 import { smallestEigenvalue } from '../stats/smallest-eigenvalue';
@@ -15,8 +14,11 @@ import type { TrainResult } from './train';
  * convex function it is the optimal map from the source to its image, so this is
  * exactly the squared W2 between the source and the mapped source), the smallest
  * eigenvalue of the analytic Jacobian over the source rows (Jacobi), energy
- * distance and per-column Kolmogorov-Smirnov statistic before/after, the training
- * convergence and warnings. Cost O(n hidden d^2 + n d^3 + min(n, 2000)^2 d).
+ * distance before/after and the largest per-column Kolmogorov-Smirnov statistic
+ * after, by the shared compareFit (assess.ts: the same rows, weights, units and
+ * subsample as every other method, so the figures compare across methods), the
+ * training convergence and warnings. Cost O(n hidden d^2 + n d^3 + min(n, 1000)^2 d
+ * + d (n + m) log(n + m)).
  */
 export function fitRecordOf(
   source: Sample,
@@ -60,22 +62,18 @@ export function fitRecordOf(
     w2: Math.sqrt(w2Squared),
     note: 'Mean squared displacement |T(x) - x|^2 over the weighted source rows; the map is a gradient of a convex function, so this is the squared W2 between the source and the mapped source.',
   };
-  const mappedPoints = { n, d, data: mapped };
-  const energyBefore = energyDistance(source, target, weights, target.weights).value;
-  const energyAfter = energyDistance(mappedPoints, target, weights, target.weights).value;
-  let ksMaxAfter = 0;
-  for (let k = 0; k < d; k++) {
-    const a = new Float64Array(n);
-    for (let i = 0; i < n; i++) a[i] = mapped[i * d + k];
-    const b = new Float64Array(target.n);
-    for (let i = 0; i < target.n; i++) b[i] = target.data[i * d + k];
-    ksMaxAfter = Math.max(ksMaxAfter, ksStatistic(a, b, weights, target.weights));
-  }
+  const { energyBefore, energyAfter, ksMaxAfter } = compareFit(source, weights, { n, d, data: mapped }, target, target.weights);
+  const kept =
+    result.steps === 0
+      ? 'no training (steps = 0): the Gaussian linear map'
+      : result.keptStep === 0
+        ? `no checkpoint beat the Gaussian linear map on the held-out energy distance (${fmt(result.startScore)}), so that map was kept`
+        : `kept the weights of step ${result.keptStep}, held-out energy distance ${fmt(result.keptScore)} against ${fmt(result.startScore)} for the Gaussian linear map`;
   const convergence: Convergence = {
     iterations: result.steps,
     finalError: result.finalLoss,
-    converged: result.stopped === 'plateau',
-    criterion: `smoothed debiased Sinkhorn divergence between mapped source and target batches (standardised units, blur ${settings.blur}; training stopped by ${result.stopped}, ${result.backend} backend${result.backendFallback ? ` because wasm failed: ${result.backendFallback}` : ''})`,
+    converged: result.stopped === 'plateau' || result.stopped === 'no-gain',
+    criterion: `smoothed debiased Sinkhorn divergence between mapped source and target batches (standardised units, blur ${settings.blur}); training stopped by ${result.stopped} on the ${result.backend} backend${result.backendFallback ? ` because wasm failed: ${result.backendFallback}` : ''}; ${kept} (energy in target-standardised units)`,
   };
   const warnings: Warning[] = [...baseWarnings];
   if (result.stopped === 'time-budget') {
@@ -92,4 +90,8 @@ export function fitRecordOf(
     });
   }
   return { cost, energyBefore, energyAfter, ksMaxAfter, minJacobianEigenvalue: minEig, convergence, warnings };
+}
+
+function fmt(x: number): string {
+  return Number.isFinite(x) ? x.toPrecision(3) : String(x);
 }

@@ -44,3 +44,14 @@ export function initialParams(
   const c = new Float64Array(hidden).fill(cValue);
   return { d, hidden, layers, w, b, c, v, alpha, beta: new Float64Array(d) };
 }
+
+/**
+ * The same parameters with every output gain c set to 0: the network is then
+ * exactly its linear part, F(x) = (V^T V + alpha I) x + beta, so the Gaussian
+ * warm start without its small random nonlinear part (the linear method's map,
+ * in standardised units). A new object; `p` is not changed. O(hidden).
+ * @example new Float64Network(linearOnly(p)).forward(x, out) // out = A x
+ */
+export function linearOnly(p: NetworkParams): NetworkParams {
+  return { ...p, c: new Float64Array(p.hidden) };
+}

@@ -18,7 +18,7 @@ export const GRADIENT_NET_SETTINGS: readonly SettingSpec[] = [
   { name: 'steps', type: 'integer', default: 1500, min: 0, max: 1_000_000, describe: 'Most training steps (0 = keep the Gaussian warm start).' },
   { name: 'learning_rate', type: 'number', default: 0.01, min: 0, minExclusive: true, max: 1, describe: 'Adam step size.' },
   { name: 'batch', type: 'integer', default: 256, min: 0, max: 100_000, describe: 'Rows drawn from each sample per step (0 = all rows; cost grows with its square).' },
-  { name: 'blur', type: 'number', default: 0, min: 0, max: 100, describe: 'Sinkhorn blur in standardised units; 0 = automatic (columns / 2). Smaller is sharper but chases sampling noise.' },
+  { name: 'blur', type: 'number', default: 0, min: 0, max: 100, describe: 'Sinkhorn blur in standardised units; 0 = automatic (square root of columns / 2). Smaller is sharper but chases sampling noise.' },
   { name: 'seed', type: 'integer', default: 0, min: 0, max: 4294967295, describe: 'Seed of the initial weights and batch order.' },
   { name: 'time_budget', type: 'number', default: 60, min: 0, minExclusive: true, max: 86400, describe: 'Seconds of training at most; the fit stops there with a warning.' },
   { name: 'backend', type: 'choice', default: 'wasm', choices: ['wasm', 'cpu'], describe: 'Tensor backend: wasm (fast, falls back to cpu if it cannot load) or cpu.' },

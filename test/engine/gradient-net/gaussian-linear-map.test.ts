@@ -1,6 +1,7 @@
 import { inv, matrix, multiply, sqrtm } from 'mathjs';
 import { gaussianLinearMap } from '../../../src/engine/gradient-net/gaussian-linear-map';
-import { points } from '../../../src/engine/points';
+import { points, sample } from '../../../src/engine/points';
+import { fitLinear } from '../../../src/engine/linear/fit';
 import { Random } from '../../../src/engine/stats/random';
 
 /** Covariance with divisor n, by the textbook two-pass formula. */
@@ -32,5 +33,19 @@ describe('gaussianLinearMap', () => {
     const A = [[a[0], a[1]], [a[2], a[3]]];
     const ama = multiply(multiply(A, S), A) as number[][];
     for (let i = 0; i < 2; i++) for (let k = 0; k < 2; k++) expect(ama[i][k]).toBeCloseTo(T[i][k], 6); // Source: A S A = T (Olkin & Pukelsheim 1982)
+  });
+
+  test('is the linear method\'s matrix bit for bit on well-conditioned data (no ridge added)', () => {
+    const r = new Random(8);
+    const src = Array.from({ length: 100 }, () => [r.normal(), 3 * r.normal()]);
+    const tgt = Array.from({ length: 120 }, () => { const u = r.normal(); return [u, u + 0.1 * r.normal()]; });
+    const a = gaussianLinearMap(points(src), null, points(tgt), null);
+    const lin = fitLinear(sample(src), sample(tgt), { ridge: 0 }).toJSON().params as { matrix: number[] };
+    expect(Array.from(a)).toEqual(lin.matrix); // Source: both use stats/moments.ts and linear/gaussian-transport.ts
+  });
+
+  test('adds a tiny ridge for a singular covariance instead of failing', () => {
+    const a = gaussianLinearMap(points([[0, 0], [1, 1], [2, 2]]), null, points([[0, 1], [1, 0], [2, 3]]), null);
+    expect(Array.from(a).every(Number.isFinite)).toBe(true);
   });
 });

@@ -7,6 +7,8 @@ import { isRemapError } from '../../../src/engine/errors';
 import { resolveSettings, COMMON_SETTINGS } from '../../../src/engine/settings';
 import type { Sample } from '../../../src/engine/points';
 import type { Progress } from '../../../src/engine/map';
+import { fitLinear } from '../../../src/engine/linear/fit';
+import { compareFit } from '../../../src/engine/assess';
 
 const settingsOf = (raw: Record<string, unknown>) => resolveSettings('gradient-net', [...COMMON_SETTINGS, ...gradientNetMethod.settings], raw);
 
@@ -130,6 +132,28 @@ describe('gradientNetMethod', () => {
     ];
     // 200 rows per sample: sampling error of means and covariances is about 0.1-0.2.
     for (let i = 0; i < 3; i++) for (let k = 0; k < 2; k++) expect(Math.abs(out[i * 2 + k] - exact[i][k])).toBeLessThan(0.35);
+  });
+
+  test('steps = 0 gives exactly the linear method\'s map on the same data (to 1e-9, original units)', async () => {
+    const lin = fitLinear(SRC, TGT, { ridge: 0 });
+    const gn = await gradientNetMethod.fit(SRC, TGT, settingsOf({ ...FAST, steps: 0, tails: 'linear' }), {});
+    const probe = { n: 3, d: 2, data: Float64Array.of(0, 0, 3, -2, -1.5, 4) };
+    for (const x of [SRC, probe]) {
+      const a = gn.apply(x).data;
+      const b = lin.apply(x).data;
+      // Source: Dowson & Landau 1982 -- both are m_t + A (x - m_s) with A from the same weighted moments.
+      for (let i = 0; i < a.length; i++) expect(Math.abs(a[i] - b[i])).toBeLessThan(1e-9 * (1 + Math.abs(b[i])));
+    }
+  });
+
+  test('energy distances and KS are the shared compareFit figures, so they compare across methods', async () => {
+    const map = await gradientNetMethod.fit(SRC, TGT, settingsOf({ ...FAST, steps: 10 }), {});
+    const dg = map.diagnostics();
+    const ref = compareFit(SRC, null, map.apply(SRC), TGT, null);
+    expect(dg.energyBefore).toBe(ref.energyBefore);
+    expect(dg.energyAfter).toBe(ref.energyAfter);
+    expect(dg.ksMaxAfter).toBe(ref.ksMaxAfter);
+    expect(dg.energyBefore).toBe(fitLinear(SRC, TGT, { ridge: 0 }).diagnostics().energyBefore);
   });
 
   test('row weights are honoured: zero-weight rows do not count', async () => {
