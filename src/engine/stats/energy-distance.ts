@@ -147,6 +147,9 @@ function subsample(p: Points, weights: ArrayLike<number> | null | undefined, nam
 }
 
 /** sum_i sum_j wa_i wb_j |a_i - b_j|. */
+/** A local alias: global lookups inside hot loops are slow in some hosts (jest's sandboxed contexts). */
+const sqrt = Math.sqrt;
+
 function crossMean(a: Rows, b: Rows, d: number): number {
   const ax = a.x;
   const bx = b.x;
@@ -164,7 +167,7 @@ function crossMean(a: Rows, b: Rows, d: number): number {
         const t = ax[oi + k] - bx[oj + k];
         q += t * t;
       }
-      s += bw[j] * Math.sqrt(q);
+      s += bw[j] * sqrt(q);
     }
     total += aw[i] * s;
   }
@@ -186,7 +189,7 @@ function withinMean(a: Rows, d: number): number {
         const t = x[oi + k] - x[oj + k];
         q += t * t;
       }
-      s += w[j] * Math.sqrt(q);
+      s += w[j] * sqrt(q);
     }
     total += w[i] * s;
   }
