@@ -1,5 +1,5 @@
-import { halfSquaredDiameter } from './eps-schedule';
 import { solveSelfSinkhorn, type SelfSinkhornResult } from './self-sinkhorn';
+import { packedSize } from './symmetric-kernel';
 import { solveSinkhorn, type SinkhornResult, type TransportProblem } from './sinkhorn';
 import type { SolveControl } from './solve-control';
 
@@ -8,9 +8,9 @@ export interface DivergenceOptions {
   readonly tolerance: number;
   readonly maxIterations: number;
   readonly control?: SolveControl;
-  /** Scratch of length >= max(n m, n^2, m^2), shared by the three solves. */
+  /** Scratch of length >= max(n m, n (n + 1) / 2, m (m + 1) / 2), shared by the three solves. */
   readonly kernel?: Float64Array;
-  /** First eps of every schedule (default: half the squared diameter of both samples' box). */
+  /** First eps of every schedule (default: the transport solve starts at a quarter of its mean cost, see `meanCost`; the self solves at eps). */
   readonly startEps?: number;
 }
 
@@ -39,9 +39,8 @@ export interface DivergenceResult {
 export function sinkhornDivergence(p: TransportProblem, o: DivergenceOptions): DivergenceResult {
   const n = p.x.n;
   const m = p.y.n;
-  const kernel = o.kernel ?? new Float64Array(Math.max(n * m, n * n, m * m));
-  const startEps = o.startEps ?? halfSquaredDiameter(p.x, p.y);
-  const common = { eps: o.eps, tolerance: o.tolerance, maxIterations: o.maxIterations, control: o.control, kernel, startEps };
+  const kernel = o.kernel ?? new Float64Array(Math.max(n * m, packedSize(n), packedSize(m)));
+  const common = { eps: o.eps, tolerance: o.tolerance, maxIterations: o.maxIterations, control: o.control, kernel, startEps: o.startEps };
   const transport = solveSinkhorn(p, common);
   const sourceSelf = solveSelfSinkhorn(p.x, p.logA, common);
   const targetSelf = solveSelfSinkhorn(p.y, p.logB, common);

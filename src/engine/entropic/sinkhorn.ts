@@ -1,7 +1,8 @@
 import type { Points } from '../points';
-import { epsSchedule, halfSquaredDiameter } from './eps-schedule';
-import { buildKernelRecentred, repairColumn, squareKernel } from './kernel';
+import { epsSchedule, meanCost } from './eps-schedule';
+import { buildKernelRecentred, maxSquarings, repairColumn, squareKernel } from './kernel';
 import { fusedScalingPass, kernelTimes, kernelTransposeTimes } from './kernel-products';
+import { raisedOmega } from './over-relaxation';
 import { SolveControl } from './solve-control';
 
 /** Two weighted point sets: masses exp(logA) on the rows of x, exp(logB) on the rows of y, each summing to 1. */
@@ -19,7 +20,7 @@ export interface SinkhornOptions {
   readonly tolerance: number;
   /** The most iterations, over all eps stages (>= 1). */
   readonly maxIterations: number;
-  /** First eps of the schedule (default: half the squared diameter of the data's box). */
+  /** First eps of the schedule (default: a quarter of the mean cost, see `meanCost`). */
   readonly startEps?: number;
   /** Shared cancellation, progress and iteration count. */
   readonly control?: SolveControl;
@@ -46,10 +47,14 @@ export interface SinkhornResult {
 /** Iterations allowed per intermediate eps stage, and the marginal error good enough to move on. */
 const STAGE_ITERATIONS = 1;
 const STAGE_TOLERANCE = 1e-2;
-/** Absorb the scalings into the potentials once one leaves [e^-LOG_TAU, e^LOG_TAU]. */
-const LOG_TAU = 100;
-/** Rebuild the kernel exactly after this many squarings (each doubles an entry's relative rounding error). */
-const MAX_SQUARINGS = 12;
+/**
+ * Absorb the scalings into the potentials once one leaves [e^-LOG_TAU, e^LOG_TAU].
+ * 200 keeps every entry that matters representable: a plan entry a_i u_i K_ij v_j b_j
+ * above e^-40 needs K_ij above e^-440 with both scalings at the limit, far from
+ * the smallest normal double (about e^-708). (It was 100; at 100 the scenarios
+ * demo rebuilt its 5,000 x 5,000 kernel once more mid-solve, about 1 s.)
+ */
+const LOG_TAU = 200;
 /** Over-relaxation: plain iterations watched before choosing omega, and the largest omega used. */
 const PROBE_FROM = 4;
 const PROBE_LENGTH = 8;
@@ -65,18 +70,22 @@ const OMEGA_MAX = 1.9;
  *  - the kernel K_ij = exp((f_i + g_j - C_ij) / eps) is stored once per stage and
  *    each iteration is one fused pass over it (row products give u = 1 / K(b v),
  *    the same rows, still in cache, accumulate K^T(a u)): no Math.exp;
- *  - eps halves from a large start to the target; moving to the next stage squares
- *    the kernel after absorbing the scalings, so Math.exp runs only on the first
- *    build, every twelfth stage, and on absorption or repair;
- *  - scalings beyond e^100 are absorbed into f, g and the kernel rebuilt exactly;
+ *  - eps halves from a quarter of the mean cost (see `meanCost`) to the target;
+ *    moving to the next stage squares the kernel after absorbing the scalings, so
+ *    Math.exp runs only on the first build, after `maxSquarings(tolerance)`
+ *    squarings (never fewer than 12), and on absorption or repair;
+ *  - scalings beyond e^200 are absorbed into f, g and the kernel rebuilt exactly;
  *    a row whose kernel underflowed is rebuilt in the log domain (log-sum-exp),
- *    so the solve never divides by zero;
+ *    and so is a column whose kernel sum fell outside [e^-200, e^200], so the
+ *    solve never divides by zero;
  *  - at the final eps the step is over-relaxed, u <- u^(1-w) (1 / K(b v))^w, with
  *    w = 2 / (1 + sqrt(1 - r)) from the observed rate r of the plain iteration
  *    (Thibault, Chizat, Dossal & Papadakis 2017, "Overrelaxed Sinkhorn-Knopp
  *    algorithm for regularized optimal transport", arXiv 1711.01851; the choice of
  *    w as in Lehmann, von Renesse, Sambale & Uschmajew 2021, "A note on
- *    overrelaxation in the Sinkhorn algorithm"); if the error grows, w drops back.
+ *    overrelaxation in the Sinkhorn algorithm"); every 8 iterations the rate is
+ *    measured again and w raised towards the optimum it implies (`raisedOmega`);
+ *    if the error grows, w drops back.
  * The loop stops when the L1 marginal error (source plus target marginal, of
  * which the source part is 0 for plain steps) is below `tolerance`, or the
  * iterations run out. The returned potentials are exactly the measured state.
@@ -94,7 +103,8 @@ export function solveSinkhorn(p: TransportProblem, o: SinkhornOptions): Sinkhorn
   const b = logB.map(Math.exp);
   const K = o.kernel && o.kernel.length >= n * m ? o.kernel : new Float64Array(n * m);
   const control = o.control ?? new SolveControl({}, o.maxIterations);
-  const schedule = epsSchedule(o.eps, o.startEps ?? halfSquaredDiameter(x, y));
+  const schedule = epsSchedule(o.eps, o.startEps ?? meanCost(x, logA, y, logB) / 4);
+  const squaringCap = maxSquarings(o.tolerance);
   const stages = schedule.length;
   const st: SolverState = {
     x, y, logA, a, b, K, n, m,
@@ -108,6 +118,8 @@ export function solveSinkhorn(p: TransportProblem, o: SinkhornOptions): Sinkhorn
     eps: schedule[0],
     builds: 0,
     squarings: 0,
+    squareWith: { u: new Float64Array(n), v: new Float64Array(m) },
+    pendingSquare: false,
   };
   let uNew: Float64Array = new Float64Array(n);
   const stats = new Float64Array(2);
@@ -123,9 +135,20 @@ export function solveSinkhorn(p: TransportProblem, o: SinkhornOptions): Sinkhorn
   for (let s = 0; s < stages; s++) {
     const last = s === stages - 1;
     if (s > 0) {
-      absorbScalings(st, true);
-      st.eps = schedule[s];
-      if (st.squarings >= MAX_SQUARINGS) rebuild(st);
+      // Move to eps / 2: K <- (u K v)^2, done by the stage's first pass (or a rebuild once squarings have piled up).
+      flushSquare(st);
+      if (st.squarings >= squaringCap) {
+        absorbScalings(st);
+        st.eps = schedule[s];
+        rebuild(st);
+      } else {
+        st.squareWith.u.set(st.u);
+        st.squareWith.v.set(st.v);
+        absorbScalings(st);
+        st.eps = schedule[s];
+        st.pendingSquare = true;
+        st.squarings++;
+      }
       fresh = false;
     }
     const tol = last ? o.tolerance : Math.max(o.tolerance, STAGE_TOLERANCE);
@@ -136,7 +159,8 @@ export function solveSinkhorn(p: TransportProblem, o: SinkhornOptions): Sinkhorn
     let probeErr = NaN;
     let best = Infinity;
     for (let it = 0; it < cap; it++) {
-      const ok = fusedScalingPass(st.K, n, m, a, st.bv, st.u, omega, uNew, st.t, stats);
+      const ok = fusedScalingPass(st.K, n, m, a, st.bv, st.u, omega, uNew, st.t, stats, st.pendingSquare ? st.squareWith : null);
+      st.pendingSquare = false;
       iterations++;
       if (!ok) {
         // A row underflowed: start again from the last good scalings, exactly, in plain steps.
@@ -183,6 +207,7 @@ export function solveSinkhorn(p: TransportProblem, o: SinkhornOptions): Sinkhorn
             if (rate > 0 && rate < 1) omega = Math.min(omegaCap, 2 / (1 + Math.sqrt(1 - rate)));
             if (omega < 1.05) omega = 1;
             best = err;
+            probeAt = it;
           }
         } else if (omega > 1) {
           if (err < best) best = err;
@@ -190,6 +215,14 @@ export function solveSinkhorn(p: TransportProblem, o: SinkhornOptions): Sinkhorn
             omegaCap = 1 + (omega - 1) / 2;
             omega = 1;
             probeAt = it + PROBE_FROM;
+          }
+          if (omega > 1) {
+            // Re-measure the rate under omega; if it is slower than omega - 1, omega is below the optimum: raise it.
+            if (it === probeAt + PROBE_LENGTH) probeErr = err;
+            else if (it === probeAt + 2 * PROBE_LENGTH) {
+              omega = raisedOmega(omega, Math.pow(err / probeErr, 1 / PROBE_LENGTH), omegaCap);
+              probeAt = it;
+            }
           }
         }
       }
@@ -208,6 +241,7 @@ export function solveSinkhorn(p: TransportProblem, o: SinkhornOptions): Sinkhorn
       if (big) rebuild(st);
     }
   }
+  flushSquare(st);
   if (!fresh) {
     const r = measurePlan(st);
     err = r.err;
@@ -250,19 +284,21 @@ interface SolverState {
   eps: number;
   builds: number;
   squarings: number;
+  /** The scalings of the previous stage, to square K with (K <- (u K v)^2) when `pendingSquare`. */
+  readonly squareWith: { readonly u: Float64Array; readonly v: Float64Array };
+  pendingSquare: boolean;
 }
 
-/**
- * Folds the scalings into the potentials (f += eps log u, g += eps log v) and
- * resets them to 1. With `square`, first moves the kernel to eps / 2 by
- * K_ij <- (u_i K_ij v_j)^2 (the caller then halves eps). O(n m) or O(n + m).
- */
-function absorbScalings(st: SolverState, square: boolean): void {
+/** Applies a pending stage move to K on its own (when no pass will do it). O(n m) if pending, else O(1). */
+function flushSquare(st: SolverState): void {
+  if (!st.pendingSquare) return;
+  squareKernel(st.K, st.n, st.m, st.squareWith.u, st.squareWith.v);
+  st.pendingSquare = false;
+}
+
+/** Folds the scalings into the potentials (f += eps log u, g += eps log v) and resets them to 1. O(n + m). */
+function absorbScalings(st: SolverState): void {
   const { n, m, f, g, u, v, eps } = st;
-  if (square) {
-    squareKernel(st.K, n, m, u, v);
-    st.squarings++;
-  }
   for (let i = 0; i < n; i++) f[i] += eps * Math.log(u[i]);
   for (let j = 0; j < m; j++) g[j] += eps * Math.log(v[j]);
   u.fill(1);
@@ -270,15 +306,26 @@ function absorbScalings(st: SolverState, square: boolean): void {
   st.bv.set(st.b);
 }
 
-/** Absorbs u, v into f, g and rebuilds the kernel exactly (an exact log-domain f-update; underflowed columns repaired). O(n m (d + 1)). */
+/**
+ * Absorbs u, v into f, g and rebuilds the kernel exactly (an exact log-domain
+ * f-update); columns whose kernel sum K^T a fell outside [e^-200, e^200] (an
+ * outlier far from every source row) get their exact g-update too, so the next
+ * step needs no scaling beyond e^200 (on the scenarios demo this spared a
+ * second build).
+ * O(n m (d + 1)).
+ */
 function rebuild(st: SolverState): void {
   const { x, y, logA, a, b, K, n, m, f, g, t, scratch, eps } = st;
-  absorbScalings(st, false);
+  absorbScalings(st);
   buildKernelRecentred(x, y, b, f, g, eps, K);
+  st.pendingSquare = false;
   st.builds++;
   st.squarings = 0;
   kernelTransposeTimes(K, n, m, a, t);
-  for (let j = 0; j < m; j++) if (!(t[j] > 0 && t[j] < Infinity)) repairColumn(x, y, logA, f, g, eps, K, j, scratch);
+  // Columns whose kernel (nearly) underflowed would need a scaling beyond e^LOG_TAU at once: set them exactly.
+  const lo = Math.exp(-LOG_TAU);
+  const hi = Math.exp(LOG_TAU);
+  for (let j = 0; j < m; j++) if (!(t[j] >= lo && t[j] <= hi)) repairColumn(x, y, logA, f, g, eps, K, j, scratch);
 }
 
 /** Both marginal errors (L1, summed) and the total mass of the plan a_i u_i K_ij v_j b_j. O(n m). */

@@ -27,7 +27,8 @@ describe('fitEntropic', () => {
     expect(diag.cost.w2).toBeCloseTo(Math.sqrt(diag.cost.w2Squared), 14);
     expect(diag.cost.note).toMatch(/times 2/);
     expect(diag.convergence?.converged).toBe(true);
-    expect(diag.convergence?.finalError).toBeLessThan(1e-6);
+    // Source: the stopping rule at the default tolerance (1e-4 since the speed work; it was 1e-6).
+    expect(diag.convergence?.finalError).toBeLessThan(1e-4);
     expect(diag.minJacobianEigenvalue).toBeGreaterThanOrEqual(-1e-12);
     expect(fitEntropic(source, target, { eps: 0.3 }).diagnostics().settings.eps).toBe(0.3);
   });

@@ -1,4 +1,4 @@
-import { buildKernelPlain, buildKernelRecentred, repairColumn, squareKernel } from '../../../src/engine/entropic/kernel';
+import { buildKernelPlain, buildKernelRecentred, maxSquarings, repairColumn, squareKernel } from '../../../src/engine/entropic/kernel';
 import { points } from '../../../src/engine/points';
 
 const x = points([[0, 0], [1, 0], [0, 2]]);
@@ -51,5 +51,14 @@ describe('kernel', () => {
     expect(g[1]).toBeCloseTo(want, 13);
     expect(K[0]).toBe(7);
     for (let i = 0; i < 3; i++) expect(K[i * 2 + 1]).toBeCloseTo(Math.exp((f[i] + g[1] - cost(i, 1)) / eps), 13);
+  });
+
+  test('maxSquarings allows squarings while 2^s * 8 * 2^-53 stays below tolerance / 10, never fewer than 12', () => {
+    // Source: the error bound in the doc comment (each squaring doubles an entry's relative error).
+    expect(maxSquarings(1e-4)).toBe(Math.floor(Math.log2(1e-4 / 10 / (8 * 2 ** -53))));
+    expect(maxSquarings(1e-4)).toBe(33);
+    expect(maxSquarings(1e-6)).toBe(26);
+    expect(maxSquarings(1e-14)).toBe(12);
+    for (const tol of [1e-3, 1e-6, 1e-9]) expect(2 ** maxSquarings(tol) * 8 * 2 ** -53).toBeLessThan(tol / 10);
   });
 });

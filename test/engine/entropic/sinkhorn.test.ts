@@ -1,3 +1,4 @@
+import { epsSchedule, halfSquaredDiameter, meanCost } from '../../../src/engine/entropic/eps-schedule';
 import { solveSinkhorn } from '../../../src/engine/entropic/sinkhorn';
 import { SolveControl } from '../../../src/engine/entropic/solve-control';
 import { RemapError } from '../../../src/engine/errors';
@@ -152,5 +153,30 @@ describe('sinkhorn', () => {
     }
     expect(caught).toBeInstanceOf(RemapError);
     expect((caught as RemapError).kind).toBe('cancelled');
+  });
+
+  test('a far outlier whose kernel column nearly underflows (sum e^-450) is set exactly at the build, with no second build', () => {
+    const x = gaussian(40, 2, 21);
+    const y = gaussian(40, 2, 22);
+    y.data[0] = 30; // C to the source cloud is about 450, so at eps = 1 its column sums to about e^-450
+    const logA = new Float64Array(40).fill(-Math.log(40));
+    const r = solveSinkhorn({ x, y, logA, logB: logA }, { eps: 1, startEps: 1, tolerance: 1e-9, maxIterations: 2000 });
+    // Source: the build's column repair (an exact log-domain g-update) keeps the scaling of that column near 1.
+    expect(r.kernelBuilds).toBe(1);
+    expect(r.converged).toBe(true);
+    const P = plan(x, y, logA, logA, r.f, r.g, 1);
+    // Source: definition of the transport plan's column marginal.
+    expect(Math.abs(P.reduce((s, row) => s + row[0], 0) - 1 / 40)).toBeLessThan(1e-9);
+  });
+
+  test('by default the eps schedule starts at a quarter of the mean cost, fewer stages than from the squared diameter', () => {
+    const x = gaussian(60, 2, 23);
+    const y = gaussian(60, 2, 24, 1.5, 1);
+    const logA = new Float64Array(60).fill(-Math.log(60));
+    const r = solveSinkhorn({ x, y, logA, logB: logA }, { eps: 0.03, tolerance: 1e-8, maxIterations: 5000 });
+    // Source: the documented default start (eps-schedule.ts, meanCost / 4).
+    expect(r.stages).toBe(epsSchedule(0.03, meanCost(x, logA, y, logA) / 4).length);
+    expect(r.stages).toBeLessThan(epsSchedule(0.03, halfSquaredDiameter(x, y)).length);
+    expect(r.converged).toBe(true);
   });
 });
