@@ -10,8 +10,12 @@
  *     selection in an unsorted copy of the target, as each cell recomputes it).
  *     That route is timed on the first 500 values and scaled linearly to n.
  *     Goal: the map >= 100x faster.
- * Seeded data; times are the median of a few runs.
+ * Seeded data; times are the median of a few runs. The machine may be shared:
+ * each table prints the load average (os.loadavg) before and after it, and
+ * (a) also gives the process CPU time (process.cpuUsage), which time spent
+ * waiting for a core does not inflate; compare ratios within one run.
  */
+import * as os from 'os';
 import { prepareFit } from '../src/engine/methods';
 import type { Sample } from '../src/engine/points';
 import { quantileMethod } from '../src/engine/quantile/quantile-method';
@@ -42,6 +46,23 @@ function time(f: () => void): number {
   const t0 = performance.now();
   f();
   return performance.now() - t0;
+}
+
+/** Wall-clock and CPU milliseconds of one call. */
+function times(f: () => void): { wall: number; cpu: number } {
+  const c0 = process.cpuUsage();
+  const t0 = performance.now();
+  f();
+  const wall = performance.now() - t0;
+  const c = process.cpuUsage(c0);
+  return { wall, cpu: (c.user + c.system) / 1000 };
+}
+
+function load(): string {
+  return os
+    .loadavg()
+    .map((x) => x.toFixed(2))
+    .join(' ');
 }
 
 function median(xs: number[]): number {
@@ -126,27 +147,40 @@ function benchA(): void {
   const n = 1_000_000;
   const src = normals(n, 11, 50, 10);
   const tgt = normals(n, 12, 3, 0.5, true);
-  fitApply(src.subarray(0, 50_000).slice(), tgt.subarray(0, 50_000).slice()); // warm-up
-  sortBoth(src.subarray(0, 50_000), tgt.subarray(0, 50_000));
-  const reversed = src.slice().reverse();
-  const sorts: number[] = [];
-  const maps: number[] = [];
-  const others: number[] = [];
-  for (let r = 0; r < 3; r++) {
-    sorts.push(time(() => sortBoth(src, tgt)));
-    maps.push(time(() => fitApply(src, tgt)));
-    others.push(time(() => fitApplyOther(src, tgt, reversed)));
+  for (let w = 0; w < 3; w++) {
+    fitApply(src.subarray(0, 50_000).slice(), tgt.subarray(0, 50_000).slice()); // warm-up
+    sortBoth(src.subarray(0, 50_000), tgt.subarray(0, 50_000));
   }
-  const s = median(sorts);
-  const m = median(maps);
-  const o = median(others);
-  console.log('(a) n = m = 1,000,000, apply to the source values (unsorted)');
+  const reversed = src.slice().reverse();
+  const sorts: { wall: number; cpu: number }[] = [];
+  const maps: { wall: number; cpu: number }[] = [];
+  const others: { wall: number; cpu: number }[] = [];
+  const before = load();
+  for (let r = 0; r < 5; r++) {
+    sorts.push(times(() => sortBoth(src, tgt)));
+    maps.push(times(() => fitApply(src, tgt)));
+    others.push(times(() => fitApplyOther(src, tgt, reversed)));
+  }
+  const after = load();
+  const s = median(sorts.map((t) => t.wall));
+  const m = median(maps.map((t) => t.wall));
+  const o = median(others.map((t) => t.wall));
+  const sc = median(sorts.map((t) => t.cpu));
+  const mc = median(maps.map((t) => t.cpu));
+  const oc = median(others.map((t) => t.cpu));
+  console.log(`(a) n = m = 1,000,000, apply to the source values (unsorted); median of 5; load average ${before} before, ${after} after`);
   console.table([
-    { step: 'sort both samples (Float64Array sort)', ms: +s.toFixed(1), ratio: 1 },
-    { step: 'quantile fit + apply to the source', ms: +m.toFixed(1), ratio: +(m / s).toFixed(2) },
-    { step: '(for reference) fit + apply to the source reversed (bucket lookups)', ms: +o.toFixed(1), ratio: +(o / s).toFixed(2) },
+    { step: 'sort both samples (Float64Array sort)', ms: +s.toFixed(1), ratio: 1, 'cpu ms': +sc.toFixed(1), 'cpu ratio': 1 },
+    { step: 'quantile fit + apply to the source', ms: +m.toFixed(1), ratio: +(m / s).toFixed(2), 'cpu ms': +mc.toFixed(1), 'cpu ratio': +(mc / sc).toFixed(2) },
+    {
+      step: '(for reference) fit + apply to the source reversed (bucket lookups)',
+      ms: +o.toFixed(1),
+      ratio: +(o / s).toFixed(2),
+      'cpu ms': +oc.toFixed(1),
+      'cpu ratio': +(oc / sc).toFixed(2),
+    },
   ]);
-  console.log(`    fit + apply / sort both = ${(m / s).toFixed(2)}x (goal <= 1.5x)`);
+  console.log(`    fit + apply / sort both = ${(m / s).toFixed(2)}x wall, ${(mc / sc).toFixed(2)}x CPU (goal <= 1.5x)`);
 }
 
 function benchB(): void {
@@ -156,12 +190,13 @@ function benchB(): void {
   const tgt = normals(n, 22, 3, 0.5, true);
   workbookRoute(src, tgt, 20); // warm-up
   fitApply(src, tgt);
+  const before = load();
   const wb = time(() => workbookRoute(src, tgt, timed));
   const scaled = (wb * n) / timed;
   const maps: number[] = [];
   for (let r = 0; r < 3; r++) maps.push(time(() => fitApply(src, tgt)));
   const m = median(maps);
-  console.log(`(b) n = m = 100,000; workbook route timed on the first ${timed} values and scaled linearly to ${n} (x${n / timed})`);
+  console.log(`(b) n = m = 100,000; workbook route timed on the first ${timed} values and scaled linearly to ${n} (x${n / timed}); load average ${before} before, ${load()} after`);
   console.table([
     { step: `workbook route, ${timed} values (measured)`, ms: +wb.toFixed(1) },
     { step: `workbook route, ${n} values (scaled)`, ms: +scaled.toFixed(0) },

@@ -4,7 +4,7 @@ import { sizeWarnings } from '../base';
 import type { CostReport, FitContext, FitRecord, MapJSON, MethodName, Warning } from '../map';
 import { columnOf, type Sample } from '../points';
 import type { Settings } from '../settings';
-import { isSortedAscending, sortWithOrder, sortWithWeights, type SortedWithOrder } from '../stats/sort';
+import { sortedCopy, sortWithOrder, sortWithWeights, type SortedWithOrder } from '../stats/sort';
 import { transportCosts1d } from '../stats/wasserstein-1d';
 import { weightedCdfSorted, type WeightedCdf } from '../stats/weighted-cdf';
 import type { ColumnMap, FittedSource } from './column-map';
@@ -145,18 +145,19 @@ function tails(settings: Settings): Tails {
 
 interface ColumnSort {
   readonly cdf: WeightedCdf;
-  /** The column as given (a copy), and its sort order, when asked to keep them. */
+  /** The column as given (a copy when the order is kept, else maybe the sample's own data: read only). */
   readonly raw: Float64Array;
   readonly sorted: SortedWithOrder | null;
 }
 
 /**
- * Copies column k once, runs the recipe's check, sorts (with weights) and
- * merges ties. `keepOrder`: sort by index (a little slower than the plain
- * typed sort) and keep the order, to map the fitted source without a search.
+ * Runs the recipe's check on column k, sorts it (with weights) and merges
+ * ties. `keepOrder`: copy the column once, sort it by index and keep the copy
+ * and the order, to map the fitted source without a search. Otherwise a
+ * single column is read in place (the sorts copy; nothing writes to it).
  */
 function columnCdf(recipe: ColumnRecipe, s: Sample, k: number, where: string, keepOrder: boolean): ColumnSort {
-  const col = columnOf(s, k);
+  const col = keepOrder || s.d !== 1 ? columnOf(s, k) : s.data.length === s.n ? s.data : s.data.subarray(0, s.n);
   recipe.check?.(col, where);
   if (keepOrder) {
     const sorted = sortWithOrder(col);
@@ -165,22 +166,17 @@ function columnCdf(recipe: ColumnRecipe, s: Sample, k: number, where: string, ke
       w = new Float64Array(col.length);
       for (let i = 0; i < w.length; i++) w[i] = s.weights[sorted.order[i]];
     }
-    return { cdf: weightedCdfSorted(sorted.sorted, w), raw: col, sorted };
+    return { cdf: weightedCdfSorted(sorted.sorted, w, true), raw: col, sorted };
   }
-  if (s.weights === null) {
-    if (!isSortedAscending(col)) col.sort();
-    return { cdf: weightedCdfSorted(col, null), raw: col, sorted: null };
-  }
+  // The sorted copies are ours alone and never written, so the merged CDF may share them.
+  if (s.weights === null) return { cdf: weightedCdfSorted(sortedCopy(col), null, true), raw: col, sorted: null };
   const sw = sortWithWeights(col, s.weights);
-  return { cdf: weightedCdfSorted(sw.values, sw.weights), raw: col, sorted: null };
+  return { cdf: weightedCdfSorted(sw.values, sw.weights, true), raw: col, sorted: null };
 }
 
-/** Maps the sorted source rows by one merge walk and puts the results back in row order. O(n). */
+/** Maps the sorted source rows by one merge walk, writing each result straight to its row. O(n). */
 function mapFittedSource(c: ColumnMap, raw: Float64Array, s: SortedWithOrder, t: Tails): FittedSource {
-  const n = raw.length;
-  const walked = new Float64Array(n);
-  const outside = c.forward.evaluate(s.sorted, walked, t, null);
-  const mapped = new Float64Array(n);
-  for (let i = 0; i < n; i++) mapped[s.order[i]] = walked[i];
+  const mapped = new Float64Array(raw.length);
+  const outside = c.forward.evaluateAscending(s.sorted, mapped, t, null, s.order);
   return { values: raw, mapped, outside };
 }

@@ -39,3 +39,34 @@ export function hazenGrid(cdf: WeightedCdf): ShareGrid {
   }
   return { p, v: cdf.values };
 }
+
+/**
+ * True when the two samples have the same total and cumulative weights and
+ * their Hazen positions increase strictly (equal sizes and weights, the common
+ * case): then `hazenGrid(a)` and `hazenGrid(b)` are bit-identical (same
+ * numbers, same arithmetic) and the quantile map's knots are simply the two
+ * value arrays (see `buildKnots`), found without building the grids. False
+ * does not mean the grids differ (weights scaled by a constant give the same
+ * positions from different totals); `buildKnots` still finds those.
+ * Cost: O(k), no allocation; stops at the first difference.
+ * @example sameHazenGrids(weightedCdf([1, 2]), weightedCdf([5, 9])) // true
+ */
+export function sameHazenGrids(a: WeightedCdf, b: WeightedCdf): boolean {
+  const k = a.values.length;
+  if (b.values.length !== k || a.total !== b.total) return false;
+  const ca = a.cumulative;
+  const cb = b.cumulative;
+  const twoW = 2 * a.total;
+  if (!Number.isFinite(twoW)) return false; // the rare split branch of hazenGrid: let it build the grids
+  let prev = 0;
+  let last = -1;
+  for (let i = 0; i < k; i++) {
+    const c = ca[i];
+    if (c !== cb[i]) return false;
+    const p = (prev + c) / twoW;
+    if (!(p > last)) return false;
+    last = p;
+    prev = c;
+  }
+  return true;
+}

@@ -79,7 +79,7 @@ export class OneWayMap {
     const n = input.length;
     const K = this.keys.length;
     if (n === 0) return 0;
-    if (K >= 2 && n * Math.log2(K) > 2 * (n + K) && isSortedAscending(input)) return this.walk(input, out, tails, flags);
+    if (K >= 2 && n * Math.log2(K) > 2 * (n + K) && isSortedAscending(input)) return this.walk(input, out, tails, flags, null);
     if (K >= 64 && n >= 2048) return this.lookup(input, out, tails, flags);
     let outside = 0;
     const { keys, lo, hi } = this;
@@ -131,6 +131,7 @@ export class OneWayMap {
     const k0 = this.keys[0];
     const kLast = this.keys[K - 1];
     const step = this.kind === 'step';
+    const floor = Math.floor;
     let outside = 0;
     for (let r = 0; r < input.length; r++) {
       const x = input[r];
@@ -152,7 +153,7 @@ export class OneWayMap {
         out[r] = this.vals[K - 1];
         continue;
       }
-      let q = Math.floor((x - k0) * scale);
+      let q = floor((x - k0) * scale);
       if (q > B1) q = B1;
       let a = buckets[q];
       let b = buckets[q + 1];
@@ -179,38 +180,64 @@ export class OneWayMap {
     return outside;
   }
 
-  /** Ascending input: one merge walk over input and keys. */
-  private walk(input: Float64Array, out: Float64Array, tails: Tails, flags: Uint8Array | null): number {
-    const { keys, lo, hi } = this;
+  /**
+   * Like `evaluate`, for input known to be ascending (NaN anywhere is allowed):
+   * one merge walk over input and keys, with the same results, bit for bit.
+   * With `order`, the result for input[r] goes to out[order[r]] (rows put back
+   * in their original places as the walk goes); `order` must be a permutation
+   * of 0..n-1. Marks flags in the same places. Cost: O(n + k).
+   * @example map.evaluateAscending(Float64Array.of(1, 2), out, 'clamp', null, Uint32Array.of(1, 0)) // out[1] = T(1), out[0] = T(2)
+   */
+  evaluateAscending(input: Float64Array, out: Float64Array, tails: Tails, flags: Uint8Array | null, order: Uint32Array | null): number {
+    if (input.length === 0) return 0;
+    return this.walk(input, out, tails, flags, order);
+  }
+
+  /** Ascending input: one merge walk over input and keys; results to out[order[r]] (or out[r]). */
+  private walk(input: Float64Array, out: Float64Array, tails: Tails, flags: Uint8Array | null, order: Uint32Array | null): number {
+    const { keys, vals, lo, hi } = this;
     const K = keys.length;
     const k0 = keys[0];
     const kLast = keys[K - 1];
+    const v0 = vals[0];
+    const vLast = vals[K - 1];
+    const step = this.kind === 'step';
     let outside = 0;
     let k = 0;
     for (let r = 0; r < input.length; r++) {
       const x = input[r];
+      const o = order === null ? r : order[r];
       if (!(x >= lo && x <= hi)) {
         if (x !== x) {
-          out[r] = NaN;
+          out[o] = NaN;
           continue;
         }
         outside++;
-        if (flags) flags[r] = 1;
-        out[r] = this.tail(x, tails);
+        if (flags) flags[o] = 1;
+        out[o] = this.tail(x, tails);
         continue;
       }
       if (x < k0) {
-        out[r] = this.vals[0];
+        out[o] = v0;
         continue;
       }
       if (x >= kLast) {
-        out[r] = this.vals[K - 1];
+        out[o] = vLast;
         continue;
       }
       // Ascending input only moves forward; the step back covers a NaN that hid a descent.
       while (k > 0 && keys[k] > x) k--;
       while (keys[k + 1] <= x) k++;
-      out[r] = this.at(k, x);
+      // The formula of `at`, written out so the loop reads no fields.
+      const a = vals[k];
+      if (step) {
+        out[o] = a;
+        continue;
+      }
+      const xa = keys[k];
+      const b = vals[k + 1];
+      const y = a + (b - a) * ((x - xa) / (keys[k + 1] - xa));
+      out[o] = y > b ? b : y;
     }
     return outside;
   }

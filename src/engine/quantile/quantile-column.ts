@@ -1,7 +1,7 @@
 import { RemapError } from '../errors';
 import type { WeightedCdf } from '../stats/weighted-cdf';
 import type { ColumnMap } from './column-map';
-import { hazenGrid } from './hazen-grid';
+import { hazenGrid, sameHazenGrids } from './hazen-grid';
 import { buildKnots } from './knots';
 import { OneWayMap } from './one-way-map';
 import { plain, readNumbers, readRecord, sameLength } from './params';
@@ -29,7 +29,8 @@ export function quantileColumn(src: WeightedCdf, tgt: WeightedCdf, where: string
       throw new RemapError(`${where}: every ${side} row with positive weight holds the same value (${cdf.values[0]}); a continuous map needs at least two different values on each side. Check the range, or use method linear.`, 'num');
     }
   }
-  const { xs, ys } = buildKnots(hazenGrid(src), hazenGrid(tgt), true);
+  // Equal grids (equal sizes and weights): buildKnots would return the value arrays themselves.
+  const { xs, ys } = sameHazenGrids(src, tgt) ? { xs: src.values, ys: tgt.values } : buildKnots(hazenGrid(src), hazenGrid(tgt), true);
   if (xs.length < 2) {
     throw new RemapError(`${where}: the source and target positions collapse to a single point (values too close together to tell apart); rescale the data.`, 'num');
   }

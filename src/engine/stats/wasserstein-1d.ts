@@ -45,10 +45,11 @@ export function transportCosts1d(a: WeightedCdf, b: WeightedCdf): { w1: number; 
   let w2 = 0;
   let sa = ac[0] / aw;
   let sb = bc[0] / bw;
+  const abs = Math.abs;
   // Each pass advances i or j (or both), so the loop runs at most ka + kb times.
   while (i < ka && j < kb) {
     const next = sa < sb ? sa : sb;
-    const d = Math.abs(av[i] - bv[j]);
+    const d = abs(av[i] - bv[j]);
     const dt = next - t;
     w1 += dt * d;
     w2 += dt * d * d;

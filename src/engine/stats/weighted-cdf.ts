@@ -25,15 +25,21 @@ export interface WeightedCdf {
  * Cost: O(n).
  * @param sorted ascending finite numbers.
  * @param weights null, or one finite non-negative weight per value with a positive total.
+ * @param share true to let `values` be `sorted` itself when no two rows tie
+ *   and no weight is zero (the common case; it saves a copy of n values). The
+ *   caller must then not write to `sorted` afterwards. `sorted` is never
+ *   written either way. Default false: `values` is always a new array.
  * @throws RemapError if the values are not ascending, the lengths differ, or no weight is positive.
  * @example weightedCdfSorted(Float64Array.of(1, 1, 4), null) // values [1, 4], cumulative [2, 3], total 3
  */
-export function weightedCdfSorted(sorted: Float64Array, weights: Float64Array | null): WeightedCdf {
+export function weightedCdfSorted(sorted: Float64Array, weights: Float64Array | null, share = false): WeightedCdf {
   const n = sorted.length;
   if (weights && weights.length !== n) {
     throw new RemapError(`weightedCdfSorted: ${weights.length} weights for ${n} values; give one weight per value.`);
   }
-  const values = new Float64Array(n);
+  // While values is sorted itself, every row so far is its own distinct value (k === i), so
+  // writing values[k] = sorted[i] changes nothing; the first tie or zero weight switches to a copy.
+  let values = share ? sorted : new Float64Array(n);
   const cumulative = new Float64Array(n);
   let k = 0;
   let total = 0;
@@ -47,6 +53,7 @@ export function weightedCdfSorted(sorted: Float64Array, weights: Float64Array | 
       const v = sorted[i];
       total += 1;
       if (v === last && k > 0) {
+        if (values === sorted) values = prefixCopy(sorted, k);
         cumulative[k - 1] = total;
         blockRows++;
         continue;
@@ -62,11 +69,15 @@ export function weightedCdfSorted(sorted: Float64Array, weights: Float64Array | 
   } else {
     for (let i = 0; i < n; i++) {
       const w = weights[i];
-      if (!(w > 0)) continue;
+      if (!(w > 0)) {
+        if (values === sorted) values = prefixCopy(sorted, k);
+        continue;
+      }
       const v = sorted[i];
       total += w;
       rows++;
       if (v === last && k > 0) {
+        if (values === sorted) values = prefixCopy(sorted, k);
         cumulative[k - 1] = total;
         blockRows++;
         continue;
@@ -82,6 +93,13 @@ export function weightedCdfSorted(sorted: Float64Array, weights: Float64Array | 
   if (blockRows > 1) tiedRows += blockRows;
   if (!(total > 0)) throw new RemapError('weightedCdfSorted: no value has a positive weight; give at least one positive weight.');
   return k === n ? { values, cumulative, total, rows, tiedRows } : { values: values.slice(0, k), cumulative: cumulative.slice(0, k), total, rows, tiedRows };
+}
+
+/** A new array of length sorted.length holding the first k entries of `sorted`. */
+function prefixCopy(sorted: Float64Array, k: number): Float64Array {
+  const out = new Float64Array(sorted.length);
+  out.set(sorted.subarray(0, k));
+  return out;
 }
 
 function unsorted(i: number, v: number): RemapError {

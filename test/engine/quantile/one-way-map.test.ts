@@ -86,4 +86,35 @@ describe('quantile/one-way-map', () => {
   test('minSlope is the smallest segment slope', () => {
     expect(lin.minSlope()).toBe(5);
   });
+
+  test('evaluateAscending puts each result in its row, with the bits, outside count and flags of evaluate', () => {
+    const r = rng(12);
+    for (const kind of ['linear', 'step'] as const) {
+      const K = 300;
+      const keys = new Float64Array(K);
+      const vals = new Float64Array(K);
+      for (let k = 0; k < K; k++) {
+        keys[k] = (k === 0 ? 0 : keys[k - 1]) + (kind === 'step' ? 0.1 : 0) + r() ** 2;
+        vals[k] = (k === 0 ? 0 : vals[k - 1]) + r();
+      }
+      const m = new OneWayMap(keys, vals, kind, keys[0] - 1, keys[K - 1] + 1);
+      const rows = Float64Array.from({ length: 3000 }, () => (r() * 1.2 - 0.1) * keys[K - 1]);
+      rows[7] = NaN;
+      const expected = new Float64Array(rows.length);
+      const flagsA = new Uint8Array(rows.length);
+      const outA = m.evaluate(rows, expected, 'linear', flagsA);
+      const order = Uint32Array.from(rows.keys()).sort((a, b) => (rows[a] !== rows[a] ? 1 : rows[b] !== rows[b] ? -1 : rows[a] - rows[b]));
+      const ascending = Float64Array.from(order, (i) => rows[i]);
+      const got = new Float64Array(rows.length);
+      const flagsB = new Uint8Array(rows.length);
+      const outB = m.evaluateAscending(ascending, got, 'linear', flagsB, order);
+      expect(outB).toBe(outA);
+      expect(outA).toBeGreaterThan(0);
+      expect(Array.from(flagsB)).toEqual(Array.from(flagsA));
+      expect(Array.from(got)).toEqual(Array.from(expected));
+      const plain = new Float64Array(rows.length);
+      m.evaluateAscending(ascending, plain, 'linear', null, null);
+      expect(Array.from(plain)).toEqual(Array.from(order, (i) => expected[i]));
+    }
+  });
 });

@@ -3,6 +3,7 @@ import { prepareFit } from '../../../src/engine/methods';
 import type { MethodSpec } from '../../../src/engine/method';
 import { column, sample, type Sample } from '../../../src/engine/points';
 import { quantileMethod } from '../../../src/engine/quantile/quantile-method';
+import { stepMethod } from '../../../src/engine/quantile/step-method';
 import { wasserstein1d } from '../../../src/engine/stats/wasserstein-1d';
 import type { TransportMap } from '../../../src/engine/map';
 
@@ -136,6 +137,24 @@ describe('quantile method', () => {
     const bumped = [...x, 0.5];
     const slow = Array.from(m.apply(column(bumped)).data).slice(0, x.length);
     expect(fast).toEqual(slow);
+  });
+
+  test('the fitted-source shortcut matches search bit for bit above the radix-sort size, with weights, negative ties and signed zeros', () => {
+    const r = rng(6);
+    const n = 6000;
+    const x = Array.from({ length: n }, (_, i) => (i % 10 === 0 ? (i % 20 === 0 ? -0 : 0) : -Math.floor(r() * 300) / 8));
+    const w = Array.from({ length: n }, () => (r() < 0.05 ? 0 : r() * 0.3));
+    const y = Array.from({ length: 4500 }, () => r() * 20 - 5);
+    for (const method of [quantileMethod, stepMethod]) {
+      const s = sample(x, w);
+      const m = fit(method, s, sample(y), { tails: 'linear' });
+      const fast = m.apply(s);
+      const slow = m.apply(column([...x, 0.5]));
+      const a = Array.from(fast.data);
+      const b = Array.from(slow.data).slice(0, n);
+      expect(a.every((v, i) => Object.is(v, b[i]))).toBe(true);
+      expect(fast.outside).toBe(0);
+    }
   });
 
   test('inputs are not mutated', () => {

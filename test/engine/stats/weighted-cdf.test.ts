@@ -42,4 +42,26 @@ describe('stats/weighted-cdf', () => {
     expect(upperIndex(a, 4)).toBe(2);
     expect(upperIndex(a, 5)).toBe(3);
   });
+
+  test('weightedCdfSorted with share: values is the sorted array itself only when every row is distinct and weighed; sorted is never written', () => {
+    const distinct = Float64Array.of(1, 2, 5);
+    const shared = weightedCdfSorted(distinct, null, true);
+    expect(shared.values).toBe(distinct);
+    expect(Array.from(shared.cumulative)).toEqual([1, 2, 3]);
+    for (const [sorted, weights] of [
+      [Float64Array.of(1, 2, 2, 5, 5, 6), null],
+      [Float64Array.of(1, 2, 3, 4), Float64Array.of(1, 0, 2, 1)],
+      [Float64Array.of(-0, 0, 3), Float64Array.of(1, 1, 1)],
+    ] as const) {
+      const before = sorted.slice();
+      const a = weightedCdfSorted(sorted, weights, true);
+      const b = weightedCdfSorted(sorted.slice(), weights, false);
+      expect(a.values).not.toBe(sorted);
+      expect(sorted).toEqual(before);
+      expect(Array.from(a.values)).toEqual(Array.from(b.values));
+      expect(Object.is(a.values[0], b.values[0])).toBe(true); // a -0/+0 block keeps its first value's sign
+      expect(Array.from(a.cumulative)).toEqual(Array.from(b.cumulative));
+      expect([a.total, a.rows, a.tiedRows]).toEqual([b.total, b.rows, b.tiedRows]);
+    }
+  });
 });
