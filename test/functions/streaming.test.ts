@@ -15,6 +15,12 @@ afterEach(() => forgetAll());
 const col = (xs: number[]) => Object.freeze(xs.map((x) => Object.freeze([x]))) as unknown as any[][];
 const tick = (ms: number) => new Promise((r) => setTimeout(r, ms));
 
+/** Waits until `done()` holds, checking every 20 ms, for at most `limitMs` (generous: CI machines are loaded). */
+async function until(done: () => boolean, limitMs = 30000): Promise<void> {
+  const t0 = Date.now();
+  while (!done() && Date.now() - t0 < limitMs) await tick(20);
+}
+
 /**
  * A method that trains in the background for this test: `steps` steps of 5 ms,
  * reporting progress and honouring the signal like the engine's trained methods,
@@ -60,7 +66,7 @@ describe('REMAP.FIT streams', () => {
     const { inv, results } = invocation();
     F.fit(src, tgt, 'slow-test', 'steps=30', undefined, undefined, inv);
     expect(results).toEqual(['fitting slow-test: starting']);
-    await tick(600);
+    await until(() => /^remap:/.test(String(results[results.length - 1])));
     const last = results[results.length - 1] as string;
     expect(last).toMatch(/^remap:slow-test:8x1:[0-9a-f]{14}$/);
     expect(results.slice(0, -1).every((r) => typeof r === 'string' && r.startsWith('fitting slow-test:'))).toBe(true);
@@ -69,7 +75,7 @@ describe('REMAP.FIT streams', () => {
   test('a progress text reads "fitting <method>: step s/n (t s)"', async () => {
     const { inv, results, cancel } = invocation();
     F.fit(src, tgt, 'slow-test', 'steps=400', undefined, undefined, inv);
-    await tick(1500);
+    await until(() => results.some((r) => /^fitting slow-test: step \d+\/400/.test(String(r))));
     cancel();
     expect(results.some((r) => /^fitting slow-test: step \d+\/400 \(\d+ s\)$/.test(String(r)))).toBe(true);
   });
@@ -81,7 +87,7 @@ describe('REMAP.FIT streams', () => {
       lastStep = p.step;
     });
     F.fit(src, tgt, 'slow-test', 'steps=401', undefined, undefined, inv);
-    await tick(100);
+    await until(() => lastStep > 0);
     cancel();
     const count = results.length;
     const stepAtCancel = lastStep;
