@@ -45,7 +45,7 @@ export function fitEntropic(source: Sample, target: Sample, settings: Settings, 
   const entries = Math.max(n * m, n * n, m * m);
   if (entries > MAX_KERNEL_ENTRIES) {
     throw new RemapError(
-      `fit (entropic): ${n} source and ${m} target rows need a ${Math.max(n, m)} x ${Math.max(n, m)} kernel (${Math.round((entries * 8) / 1e6)} MB); the entropic method takes at most 5,000 rows of positive weight per sample. Fit on a random subsample, or use the linear method.`,
+      `fit (entropic): ${n} source and ${m} target rows need a ${Math.max(n, m)} x ${Math.max(n, m)} kernel (${Math.round((entries * 8) / 1e6)} MB); the entropic method takes at most 5,000 rows of positive weight per sample. Fit on a random subsample, or use the gradient-net or linear method.`,
     );
   }
   const eps = opts.eps > 0 ? opts.eps : defaultEps(sx.points, sx.logMass, sy.points, sy.logMass);
