@@ -2,7 +2,7 @@ import { RemapError, isRemapError } from '../engine/errors';
 import { chooseMethod } from '../engine/auto';
 import type { TransportMap } from '../engine/map';
 import { parseMapJSON } from '../engine/map-json';
-import { getMethod, listMethods, restoreMap, startFit } from '../engine/methods';
+import { getMethod, listMethods, restoreMap, settingSpecs, startFit } from '../engine/methods';
 import { parseSettingsText } from '../engine/settings';
 import '../engine/registry';
 import { CellError, type CellIn } from '../functions/cells';
@@ -171,8 +171,9 @@ async function fitFromFlags(io: CliIO, flags: Record<string, string>, command: s
     method = c.method;
     reason = c.reason;
   }
-  getMethod(method);
-  let lastReport = 0;
+  // --seed is for the methods that draw random numbers; the exact and closed-form ones need none.
+  if (flags.seed !== undefined && !settingSpecs(getMethod(method)).some((spec) => spec.name === 'seed')) delete settings.seed;
+  let lastReport = Date.now(); // progress lines only for fits that take more than two seconds
   const map = await startFit(method, s.sample, t.sample, settings, {
     dropped: { source: s.dropped, target: t.dropped },
     columns: s.columns,

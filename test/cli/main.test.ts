@@ -97,3 +97,23 @@ describe('remap command line', () => {
     expect(bad.stderr).toBe('remap: cannot read nope.csv (ENOENT); check the path.\n');
   });
 });
+
+describe('remap --method and --seed', () => {
+  const two = 'a,b\n' + Array.from({ length: 40 }, (_, i) => `${Math.sin(i)},${Math.cos(2 * i)}`).join('\n') + '\n';
+  const twoT = 'a,b\n' + Array.from({ length: 40 }, (_, i) => `${2 * Math.sin(i) + 1},${Math.cos(2 * i) ** 3}`).join('\n') + '\n';
+
+  test('--seed is accepted by every method; methods without randomness ignore it', async () => {
+    for (const m of ['linear', 'pairs', 'entropic']) {
+      const r = await run(['cost', '--source', 's.csv', '--target', 't.csv', '--method', m, '--seed', '3'], { 's.csv': two, 't.csv': twoT });
+      expect({ m, code: r.code, err: r.err }).toEqual({ m, code: 0, err: '' });
+      expect(JSON.parse(r.out).method).toBe(m);
+    }
+  });
+
+  test('auto says what it chose and why', async () => {
+    const r = await run(['cost', '--source', 's.csv', '--target', 't.csv', '--method', 'auto'], { 's.csv': two, 't.csv': twoT });
+    const j = JSON.parse(r.out);
+    expect(j.method).toBe('entropic');
+    expect(j.method_reason).toMatch(/entropic map fits in seconds/);
+  });
+});
