@@ -64,7 +64,11 @@ export function minJacobianEigenvalue(x: Points, rows: Int32Array, support: Poin
   let min = Infinity;
   for (let r = 0; r < rows.length; r++) {
     mapJacobian(x, rows[r], support, h, eps, J, scratch);
-    const e = smallestEigenvalue(J, d);
+    let trace = 0;
+    for (let k = 0; k < d; k++) trace += J[k * d + k];
+    // J is a covariance divided by eps, PSD exactly: a negative eigenvalue within rounding of its trace is 0.
+    const raw = smallestEigenvalue(J, d);
+    const e = raw < 0 && -raw <= 1e-12 * Math.abs(trace) ? 0 : raw;
     if (e < min) min = e;
   }
   return min;
