@@ -6,7 +6,6 @@ import type { Settings } from '../settings';
 import { weightedMoments } from '../stats/moments';
 import { symmetricEigen } from '../stats/symmetric-eigen';
 import { affineApply } from './affine-apply';
-import { columnRanges } from './column-ranges';
 import { compareFit } from '../assess';
 import { covarianceCondition, ILL_CONDITIONED_RATIO } from './covariance-condition';
 import { gaussianTransport } from './gaussian-transport';
@@ -59,8 +58,8 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
 
   const mom1 = weightedMoments(source, source.weights);
   const mom2 = weightedMoments(target, target.weights);
-  const r1 = columnRanges(source, source.weights);
-  const r2 = columnRanges(target, target.weights);
+  const r1 = mom1; // per-column ranges over rows of positive weight, from the moments' own pass
+  const r2 = mom2;
   checkLinearScale(diagonal(mom1.cov, d), diagonal(mom2.cov, d), varies(r1), varies(r2), fn);
   const cov1 = Float64Array.from(mom1.cov);
   const cov2 = Float64Array.from(mom2.cov);

@@ -10,6 +10,9 @@ export interface Moments {
   readonly cov: Float64Array;
   /** Sum of the weights (n when unweighted). */
   readonly totalWeight: number;
+  /** Per-column smallest and largest value over rows of positive weight (the range the sample covers). */
+  readonly min: Float64Array;
+  readonly max: Float64Array;
 }
 
 /**
@@ -32,7 +35,7 @@ export interface Moments {
  *   non-finite weight, all-zero weights, or non-finite values (or values so
  *   large their squares overflow).
  * @example weightedMoments({ n: 3, d: 1, data: Float64Array.from([1, 2, 3]) })
- * // { d: 1, mean: [2], cov: [2/3], totalWeight: 3 }
+ * // { d: 1, mean: [2], cov: [2/3], totalWeight: 3, min: [1], max: [3] }
  */
 export function weightedMoments(p: Points, weights?: ArrayLike<number> | null): Moments {
   const fn = 'weightedMoments';
@@ -42,11 +45,21 @@ export function weightedMoments(p: Points, weights?: ArrayLike<number> | null): 
   if (data.length !== n * d) throw new RemapError(`${fn}: the data holds ${data.length} numbers but n x d = ${n * d}; build the points with points() or sample().`);
   const mean = new Float64Array(d);
   const acc = new Float64Array(d * d);
+  // The column ranges come with the mean pass for free (the linear map needs both).
+  const min = new Float64Array(d).fill(Infinity);
+  const max = new Float64Array(d).fill(-Infinity);
   let total: number;
 
   if (weights == null) {
     total = n;
-    for (let i = 0, j = 0; i < n; i++) for (let k = 0; k < d; k++, j++) mean[k] += data[j];
+    for (let i = 0, j = 0; i < n; i++) {
+      for (let k = 0; k < d; k++, j++) {
+        const v = data[j];
+        mean[k] += v;
+        if (v < min[k]) min[k] = v;
+        if (v > max[k]) max[k] = v;
+      }
+    }
     for (let k = 0; k < d; k++) mean[k] /= n;
   } else {
     if (weights.length !== n) throw new RemapError(`${fn}: ${weights.length} weights for ${n} rows; give one weight per row.`);
@@ -59,7 +72,14 @@ export function weightedMoments(p: Points, weights?: ArrayLike<number> | null): 
     if (!(total > 0) || !Number.isFinite(total)) throw new RemapError(`${fn}: the weights add up to ${total}; give at least one positive weight (and rescale huge ones).`);
     for (let i = 0, j = 0; i < n; i++) {
       const w = weights[i];
-      for (let k = 0; k < d; k++, j++) mean[k] += w * data[j];
+      for (let k = 0; k < d; k++, j++) {
+        const v = data[j];
+        mean[k] += w * v;
+        if (w > 0) {
+          if (v < min[k]) min[k] = v;
+          if (v > max[k]) max[k] = v;
+        }
+      }
     }
     for (let k = 0; k < d; k++) mean[k] /= total;
   }
@@ -96,7 +116,7 @@ export function weightedMoments(p: Points, weights?: ArrayLike<number> | null): 
       acc[l * d + k] = v;
     }
   }
-  return { d, mean, cov: acc, totalWeight: total };
+  return { d, mean, cov: acc, totalWeight: total, min, max };
 }
 
 /** Rows per block of the centred-product pass (a 10-column block fits in a 32 KB cache). */

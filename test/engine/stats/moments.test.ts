@@ -116,3 +116,16 @@ describe('weightedMoments(p, weights) gives the moments of the empirical distrib
     expect(() => weightedMoments({ n: 2, d: 1, data: Float64Array.from([1e200, -1e200]) })).toThrow(/too large/);
   });
 });
+
+describe('weightedMoments column ranges', () => {
+  test('min and max per column over rows of positive weight (rows of weight zero are not part of the sample)', () => {
+    // Source: definition (the range of the empirical distribution's support)
+    const p = { n: 4, d: 2, data: Float64Array.from([1, 10, -3, 20, 7, -5, 100, 0]) };
+    const all = weightedMoments(p);
+    expect(Array.from(all.min)).toEqual([-3, -5]);
+    expect(Array.from(all.max)).toEqual([100, 20]);
+    const w = weightedMoments(p, [1, 1, 1, 0]);
+    expect(Array.from(w.min)).toEqual([-3, -5]);
+    expect(Array.from(w.max)).toEqual([7, 20]);
+  });
+});
