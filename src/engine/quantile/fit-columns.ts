@@ -4,6 +4,7 @@ import { sizeWarnings } from '../base';
 import type { CostReport, FitContext, FitRecord, MapJSON, MethodName, Warning } from '../map';
 import { columnOf, type Sample } from '../points';
 import type { Settings } from '../settings';
+import type { MethodSpec } from '../method';
 import { sortedCopy, sortWithOrder, sortWithWeights, type SortedWithOrder } from '../stats/sort';
 import { transportCosts1d } from '../stats/wasserstein-1d';
 import { weightedCdfSorted, type WeightedCdf } from '../stats/weighted-cdf';
@@ -179,4 +180,22 @@ function mapFittedSource(c: ColumnMap, raw: Float64Array, s: SortedWithOrder, t:
   const mapped = new Float64Array(raw.length);
   const outside = c.forward.evaluateAscending(s.sorted, mapped, t, null, s.order);
   return { values: raw, mapped, outside };
+}
+
+/**
+ * The MethodSpec of a one-column method from its recipe: each column matched on
+ * its own, row weights taken, at least 2 rows per sample, no settings beyond the
+ * common `tails`. The three 1-D methods differ only in their recipes.
+ */
+export function oneColumnMethod(recipe: ColumnRecipe, summary: string): MethodSpec {
+  return {
+    name: recipe.method,
+    summary,
+    shape: 'one-column',
+    settings: [],
+    minRows: () => 2,
+    weights: true,
+    fit: (source, target, settings, ctx) => fitOneColumnMap(recipe, source, target, settings, ctx),
+    fromJSON: (json) => restoreOneColumnMap(recipe, json),
+  };
 }

@@ -1,5 +1,5 @@
 import type { MethodSpec } from '../method';
-import { fitOneColumnMap, restoreOneColumnMap, type ColumnRecipe } from './fit-columns';
+import { oneColumnMethod, type ColumnRecipe } from './fit-columns';
 import { ordinalColumn, ordinalColumnFromParams } from './ordinal-column';
 import { checkWholeNumbers } from './whole-numbers';
 
@@ -20,13 +20,4 @@ const recipe: ColumnRecipe = {
  * Fit cost O(d (n log n + m log m)).
  * @example await fitMap('ordinal', sample([0, 1]), sample([0, 2])) // apply([0, 1]) gives [0, 2]
  */
-export const ordinalMethod: MethodSpec = {
-  name: 'ordinal',
-  summary: 'Equipercentile map of whole-number scores (percentile ranks, each score spread over its unit interval).',
-  shape: 'one-column',
-  settings: [],
-  minRows: () => 2,
-  weights: true,
-  fit: (source, target, settings, ctx) => fitOneColumnMap(recipe, source, target, settings, ctx),
-  fromJSON: (json) => restoreOneColumnMap(recipe, json),
-};
+export const ordinalMethod: MethodSpec = oneColumnMethod(recipe, 'Equipercentile map of whole-number scores (percentile ranks, each score spread over its unit interval).');

@@ -1,5 +1,5 @@
 import type { MethodSpec } from '../method';
-import { fitOneColumnMap, restoreOneColumnMap, type ColumnRecipe } from './fit-columns';
+import { oneColumnMethod, type ColumnRecipe } from './fit-columns';
 import { quantileColumn, quantileColumnFromParams } from './quantile-column';
 
 const recipe: ColumnRecipe = {
@@ -17,13 +17,4 @@ const recipe: ColumnRecipe = {
  * Fit cost O(d (n log n + m log m)); apply O(n d) for large or sorted input.
  * @example await fitMap('quantile', sample([1, 2, 3]), sample([10, 20, 40])) // apply([2]) gives [20]
  */
-export const quantileMethod: MethodSpec = {
-  name: 'quantile',
-  summary: 'Continuous monotone map of each column: matches quantiles and interpolates linearly between them.',
-  shape: 'one-column',
-  settings: [],
-  minRows: () => 2,
-  weights: true,
-  fit: (source, target, settings, ctx) => fitOneColumnMap(recipe, source, target, settings, ctx),
-  fromJSON: (json) => restoreOneColumnMap(recipe, json),
-};
+export const quantileMethod: MethodSpec = oneColumnMethod(recipe, 'Continuous monotone map of each column: matches quantiles and interpolates linearly between them.');

@@ -1,5 +1,5 @@
 import type { MethodSpec } from '../method';
-import { fitOneColumnMap, restoreOneColumnMap, type ColumnRecipe } from './fit-columns';
+import { oneColumnMethod, type ColumnRecipe } from './fit-columns';
 import { stepColumn, stepColumnFromParams } from './step-column';
 
 const recipe: ColumnRecipe = {
@@ -17,13 +17,4 @@ const recipe: ColumnRecipe = {
  * Fit cost O(d (n log n + m log m)).
  * @example await fitMap('step', sample([1, 2, 3]), sample([10, 20, 40])) // apply([2.5]) gives [20]
  */
-export const stepMethod: MethodSpec = {
-  name: 'step',
-  summary: 'Exact inverse-CDF map of each column: every result is a target sample value.',
-  shape: 'one-column',
-  settings: [],
-  minRows: () => 2,
-  weights: true,
-  fit: (source, target, settings, ctx) => fitOneColumnMap(recipe, source, target, settings, ctx),
-  fromJSON: (json) => restoreOneColumnMap(recipe, json),
-};
+export const stepMethod: MethodSpec = oneColumnMethod(recipe, 'Exact inverse-CDF map of each column: every result is a target sample value.');
