@@ -23,8 +23,8 @@
  * O(n m). Returns false if some s_i was 0 or not finite (that row is skipped in t).
  * With `square`, every row of K is first replaced by (sqU_i K_ij sqV_j)^2, the
  * move to the next eps stage of `squareKernel` (same arithmetic, so the same
- * bits), done while the rows are in cache: this spares the separate pass over
- * the whole kernel at each stage change.
+ * bits), in the same sweep that forms the row sums: this spares the separate
+ * pass over the whole kernel at each stage change, and a second read of the rows.
  * @param t is overwritten (length m); stats (length >= 2) too.
  * @param square null, or the scalings { u: length n, v: length m } to square K with first (K is then overwritten).
  * @example fusedScalingPass(K, n, m, a, bv, u, 1, uNew, t, stats) // uNew = 1 / K(b v), t = K^T(a uNew)
@@ -47,9 +47,29 @@ export function fusedScalingPass(
     const r1 = r0 + m;
     const r2 = r1 + m;
     const r3 = r2 + m;
-    if (square) for (let k = 0; k < 4; k++) squareRow(K, r0 + k * m, m, square.u[i + k], square.v);
     let p0 = 0, q0 = 0, p1 = 0, q1 = 0, p2 = 0, q2 = 0, p3 = 0, q3 = 0;
     let j = 0;
+    if (square) {
+      // The stage move and the row sums in one sweep (the arithmetic of squareRow, entry by entry).
+      const sv = square.v;
+      const u0 = square.u[i], u1 = square.u[i + 1], u2 = square.u[i + 2], u3 = square.u[i + 3];
+      for (; j < m2; j += 2) {
+        const w0 = bv[j];
+        const w1 = bv[j + 1];
+        const v0 = sv[j];
+        const v1 = sv[j + 1];
+        let z: number;
+        z = u0 * K[r0 + j] * v0; z *= z; K[r0 + j] = z; p0 += z * w0;
+        z = u0 * K[r0 + j + 1] * v1; z *= z; K[r0 + j + 1] = z; q0 += z * w1;
+        z = u1 * K[r1 + j] * v0; z *= z; K[r1 + j] = z; p1 += z * w0;
+        z = u1 * K[r1 + j + 1] * v1; z *= z; K[r1 + j + 1] = z; q1 += z * w1;
+        z = u2 * K[r2 + j] * v0; z *= z; K[r2 + j] = z; p2 += z * w0;
+        z = u2 * K[r2 + j + 1] * v1; z *= z; K[r2 + j + 1] = z; q2 += z * w1;
+        z = u3 * K[r3 + j] * v0; z *= z; K[r3 + j] = z; p3 += z * w0;
+        z = u3 * K[r3 + j + 1] * v1; z *= z; K[r3 + j + 1] = z; q3 += z * w1;
+      }
+      if (j < m) for (let k = 0; k < 4; k++) squareRow(K, r0 + k * m + j, 1, square.u[i + k], sv.subarray(j));
+    }
     for (; j < m2; j += 2) {
       const w0 = bv[j];
       const w1 = bv[j + 1];

@@ -1,5 +1,6 @@
 import type { Points } from '../points';
 import { squaredDistancesRow } from '../stats/sq-distances';
+import { logitRows2 } from './cost-rows';
 
 /**
  * The stabilised Gibbs kernel of log-domain Sinkhorn, stored dense and
@@ -19,6 +20,10 @@ import { squaredDistancesRow } from '../stats/sq-distances';
  *   f_i = -eps log sum_j b_j exp((g_j - C_ij) / eps)
  * computed with a row-wise max shift (stable log-sum-exp), so that after the
  * call sum_j b_j K_ij = 1 for every row: no row of K can underflow to zeros.
+ * Rows are taken two at a time for the distances (`logitRows2`). With
+ * `colWeights` and `colSums`, also writes colSums_j = sum_i colWeights_i K_ij
+ * (the column sums K^T a, row by row) during the last pass over each row,
+ * sparing a separate product over the whole kernel.
  * O(n m (d + 1)) time, no extra memory beyond K.
  * @param x source rows (n), y target rows (m), same columns.
  * @param b target masses (length m, positive, summing to 1); g target potential (length m, finite).
@@ -26,29 +31,48 @@ import { squaredDistancesRow } from '../stats/sq-distances';
  * @param eps > 0. @param K receives the kernel (length >= n m).
  * @example buildKernelRecentred(x, y, b, f, g, 0.1, K) // K ready, u = 1 exact for the rows
  */
-export function buildKernelRecentred(x: Points, y: Points, b: Float64Array, f: Float64Array, g: Float64Array, eps: number, K: Float64Array): void {
+export function buildKernelRecentred(
+  x: Points, y: Points, b: Float64Array, f: Float64Array, g: Float64Array, eps: number, K: Float64Array,
+  colWeights: Float64Array | null = null, colSums: Float64Array | null = null,
+): void {
   const n = x.n;
   const m = y.n;
+  const d = x.d;
   const inv = 1 / eps;
-  for (let i = 0; i < n; i++) {
-    const o = i * m;
-    squaredDistancesRow(x, i, y, K, o, 0.5);
-    let max = -Infinity;
-    for (let j = 0; j < m; j++) {
-      const e = (g[j] - K[o + j]) * inv;
-      K[o + j] = e;
-      if (e > max) max = e;
+  const max = new Float64Array(2);
+  if (colWeights && colSums) colSums.fill(0, 0, m);
+  for (let i = 0; i < n; i += 2) {
+    const i1 = Math.min(i + 1, n - 1);
+    logitRows2(x.data, i, i1, y.data, d, 0, m, g, inv, K, i * m, i1 * m, max);
+    for (let r = i; r <= i1; r++) {
+      const o = r * m;
+      const s = expRow(K, o, m, b, max[r - i]);
+      // s >= b_jmax * 1 > 0 because the largest entry is exp(0) = 1.
+      const scale = 1 / s;
+      if (colWeights && colSums) scaleRowAdding(K, o, m, scale, colWeights[r], colSums);
+      else for (let j = 0; j < m; j++) K[o + j] *= scale;
+      f[r] = -eps * (max[r - i] + Math.log(s));
     }
-    let s = 0;
-    for (let j = 0; j < m; j++) {
-      const w = Math.exp(K[o + j] - max);
-      K[o + j] = w;
-      s += b[j] * w;
-    }
-    // s >= b_jmax * 1 > 0 because the largest entry is exp(0) = 1.
-    const scale = 1 / s;
-    for (let j = 0; j < m; j++) K[o + j] *= scale;
-    f[i] = -eps * (max + Math.log(s));
+  }
+}
+
+/** K[o + j] <- exp(K[o + j] - max) for j < m; returns sum_j b_j K[o + j]. O(m). */
+function expRow(K: Float64Array, o: number, m: number, b: Float64Array, max: number): number {
+  let s = 0;
+  for (let j = 0; j < m; j++) {
+    const w = Math.exp(K[o + j] - max);
+    K[o + j] = w;
+    s += b[j] * w;
+  }
+  return s;
+}
+
+/** K[o + j] *= scale, then sums_j += w K[o + j], for j < m. O(m). */
+function scaleRowAdding(K: Float64Array, o: number, m: number, scale: number, w: number, sums: Float64Array): void {
+  for (let j = 0; j < m; j++) {
+    const k = K[o + j] * scale;
+    K[o + j] = k;
+    sums[j] += w * k;
   }
 }
 

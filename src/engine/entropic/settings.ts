@@ -35,7 +35,7 @@ export const ENTROPIC_SETTINGS: readonly SettingSpec[] = [
     default: 1,
     min: 0,
     max: 4294967295,
-    describe: 'Seed for the (at most 500) source rows on which the Jacobian\'s smallest eigenvalue is checked.',
+    describe: 'Seed for the (at most 200) source rows on which the Jacobian\'s smallest eigenvalue is checked.',
   },
 ];
 

@@ -35,13 +35,33 @@ export function packedRowStart(i: number, n: number): number {
 export function buildSymmetricKernel(x: Points, f: Float64Array, eps: number, P: Float64Array): void {
   const { n, d, data } = x;
   const inv = 1 / eps;
-  for (let i = 0; i < n; i++) {
-    const o = packedRowStart(i, n);
-    const tail: Points = { n: n - i, d, data: data.subarray(i * d) };
-    squaredDistancesRow(x, i, tail, P, o, 0.5);
-    const fi = f[i];
-    for (let j = i; j < n; j++) P[o + j - i] = Math.exp((fi + f[j] - P[o + j - i]) * inv);
+  let i = 0;
+  // Two rows per sweep: each x_j is read once for rows i and i + 1 (the distance
+  // arithmetic of squaredDistancesRow, in the same order, so the same bits).
+  for (; i + 1 < n; i += 2) {
+    const o0 = packedRowStart(i, n) - i;
+    const o1 = packedRowStart(i + 1, n) - (i + 1);
+    const x0 = i * d;
+    const x1 = x0 + d;
+    const f0 = f[i];
+    const f1 = f[i + 1];
+    P[o0 + i] = Math.exp((f0 + f0 - 0) * inv);
+    for (let j = i + 1, yo = (i + 1) * d; j < n; j++, yo += d) {
+      let s0 = 0;
+      let s1 = 0;
+      for (let k = 0; k < d; k++) {
+        const v = data[yo + k];
+        const t0 = data[x0 + k] - v;
+        const t1 = data[x1 + k] - v;
+        s0 += t0 * t0;
+        s1 += t1 * t1;
+      }
+      const fj = f[j];
+      P[o0 + j] = Math.exp((f0 + fj - 0.5 * s0) * inv);
+      P[o1 + j] = Math.exp((f1 + fj - 0.5 * s1) * inv);
+    }
   }
+  if (i < n) P[packedRowStart(i, n)] = Math.exp((f[i] + f[i] - 0) * inv);
 }
 
 /**

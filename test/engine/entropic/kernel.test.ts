@@ -32,6 +32,23 @@ describe('kernel', () => {
     }
   });
 
+  test('buildKernelRecentred with column weights also writes the column sums K^T a, and the same K and f', () => {
+    const b = Float64Array.of(0.25, 0.75);
+    const g = Float64Array.of(0.5, 0);
+    const a = Float64Array.of(0.2, 0.3, 0.5);
+    const f1 = new Float64Array(3);
+    const K1 = new Float64Array(6);
+    buildKernelRecentred(x, y, b, f1, g, 0.2, K1);
+    const f2 = new Float64Array(3);
+    const K2 = new Float64Array(6);
+    const t = new Float64Array(2).fill(9);
+    buildKernelRecentred(x, y, b, f2, g, 0.2, K2, a, t);
+    expect(Array.from(K2)).toEqual(Array.from(K1));
+    expect(Array.from(f2)).toEqual(Array.from(f1));
+    // Source: the definition t_j = sum_i a_i K_ij.
+    for (let j = 0; j < 2; j++) expect(t[j]).toBeCloseTo(a[0] * K1[j] + a[1] * K1[2 + j] + a[2] * K1[4 + j], 15);
+  });
+
   test('squareKernel gives (u_i K_ij v_j)^2, the kernel at eps / 2 after absorbing the scalings', () => {
     const K = Float64Array.of(0.5, 2, 1, 3);
     squareKernel(K, 2, 2, Float64Array.of(2, 1), Float64Array.of(1, 0.5));
