@@ -1,6 +1,6 @@
 import { RemapError } from '../errors';
 import type { Points } from '../points';
-import { ecdfGap, sortedWithWeights } from './ks';
+import { checkedCdf, ecdfGap } from './ks';
 import { Random } from './random';
 
 /** What `energyDistance` returns. */
@@ -69,7 +69,7 @@ export function energyDistance(
   const d = a.d;
 
   if (d === 1) {
-    const gap = ecdfGap(sortedWithWeights(a.data, wa, 'a', fn), sortedWithWeights(b.data, wb, 'b', fn));
+    const gap = ecdfGap(checkedCdf(a.data, wa, 'a', fn), checkedCdf(b.data, wb, 'b', fn));
     return { value: 2 * gap.squaredIntegral, subsampled: false, rows: { a: a.n, b: b.n } };
   }
 

@@ -1,38 +1,26 @@
 import { RemapError } from '../errors';
+import { weightedCdf, type WeightedCdf } from './weighted-cdf';
 
 /**
- * One column sorted ascending. Unweighted: every value, each of mass 1/n (w null).
- * Weighted: the distinct values, each with its total weight scaled so all sum to one.
- */
-export interface SortedWeighted {
-  readonly x: Float64Array;
-  readonly w: Float64Array | null;
-}
-
-/**
- * Copies a column, checks it, and sorts it ascending, carrying weights along
- * (scaled to sum to one; with weights, equal values are merged into one entry
- * holding their total weight). Shared by `ksStatistic` and the one-column case of
- * `energyDistance`. Cost: O(n log n): a native typed-array sort, plus n binary searches when weighted.
+ * Checks a column and its weights, then builds its merged empirical CDF with
+ * the shared `weightedCdf` (weighted-cdf.ts: sorted distinct values and their
+ * cumulative weights). Shared by `ksStatistic` and the one-column case of
+ * `energyDistance`, whose messages name the column. Cost: O(n log n).
  * Never mutates its inputs.
  * @param values the column, n >= 1 finite numbers.
  * @param weights optional, one per value, finite and >= 0, not all zero.
  * @param name what messages call the column ("a", "b").
  * @param fn the calling function, for messages.
  * @throws RemapError for an empty column, a non-finite value, a wrong weight count, a negative or non-finite weight, or all-zero weights.
- * @example sortedWithWeights([3, 1, 2], [1, 1, 2], 'a', 'f') // { x: [1, 2, 3], w: [0.25, 0.5, 0.25] }
+ * @example checkedCdf([3, 1, 2], [1, 1, 2], 'a', 'f') // values [1, 2, 3], cumulative [1, 3, 4], total 4
  */
-export function sortedWithWeights(values: ArrayLike<number>, weights: ArrayLike<number> | null | undefined, name: string, fn: string): SortedWeighted {
+export function checkedCdf(values: ArrayLike<number>, weights: ArrayLike<number> | null | undefined, name: string, fn: string): WeightedCdf {
   const n = values.length;
   if (n < 1) throw new RemapError(`${fn}: ${name} is empty; give at least one number.`);
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(values[i])) throw new RemapError(`${fn}: ${name} holds ${values[i]} at position ${i + 1}; give finite numbers only.`);
   }
-  if (weights == null) {
-    const x = Float64Array.from(values);
-    x.sort();
-    return { x, w: null };
-  }
+  if (weights == null) return weightedCdf(values, null);
   if (weights.length !== n) throw new RemapError(`${fn}: ${weights.length} weights for the ${n} values of ${name}; give one weight per value.`);
   let total = 0;
   for (let i = 0; i < n; i++) {
@@ -41,26 +29,7 @@ export function sortedWithWeights(values: ArrayLike<number>, weights: ArrayLike<
     total += w;
   }
   if (!(total > 0) || !Number.isFinite(total)) throw new RemapError(`${fn}: the weights of ${name} add up to ${total}; give at least one positive weight (and rescale huge ones).`);
-  // Ties merged: sort the values natively, keep the distinct ones, then add each
-  // weight to its value found by binary search (much faster than a comparator sort).
-  const sorted = Float64Array.from(values);
-  sorted.sort();
-  let u = 0;
-  for (let r = 0; r < n; r++) if (r === 0 || sorted[r] !== sorted[u - 1]) sorted[u++] = sorted[r];
-  const x = sorted.slice(0, u);
-  const w = new Float64Array(u);
-  for (let i = 0; i < n; i++) {
-    const v = values[i];
-    let lo = 0;
-    let hi = u - 1;
-    while (lo < hi) {
-      const mid = (lo + hi) >>> 1;
-      if (x[mid] < v) lo = mid + 1;
-      else hi = mid;
-    }
-    w[lo] += weights[i] / total;
-  }
-  return { x, w };
+  return weightedCdf(values, weights);
 }
 
 /**
@@ -68,31 +37,28 @@ export function sortedWithWeights(values: ArrayLike<number>, weights: ArrayLike<
  * over the merged sorted values and reports sup |F - G| and the integral of
  * (F - G)^2. Both are exact for step functions. Cost: O(n + m).
  * Never mutates its inputs.
- * @param a, b columns from `sortedWithWeights`.
- * @example ecdfGap(sortedWithWeights([0], null, 'a', 'f'), sortedWithWeights([1], null, 'b', 'f')) // { sup: 1, squaredIntegral: 1 }
+ * @param a, b merged CDFs (`checkedCdf`, `weightedCdf`).
+ * @example ecdfGap(checkedCdf([0], null, 'a', 'f'), checkedCdf([1], null, 'b', 'f')) // { sup: 1, squaredIntegral: 1 }
  */
-export function ecdfGap(a: SortedWeighted, b: SortedWeighted): { sup: number; squaredIntegral: number } {
-  const xa = a.x;
-  const xb = b.x;
+export function ecdfGap(a: WeightedCdf, b: WeightedCdf): { sup: number; squaredIntegral: number } {
+  const xa = a.values;
+  const xb = b.values;
   const n = xa.length;
   const m = xb.length;
+  const abs = Math.abs;
   let i = 0;
   let j = 0;
-  let ca = 0;
-  let cb = 0;
   let sup = 0;
   let area = 0;
-  // Each pass consumes at least one value, so the loop ends after at most n + m passes.
+  // Each pass consumes at least one distinct value, so the loop ends after at most n + m passes.
   while (i < n || j < m) {
     const t = j >= m || (i < n && xa[i] <= xb[j]) ? xa[i] : xb[j];
-    if (a.w) while (i < n && xa[i] === t) ca += a.w[i++];
-    else while (i < n && xa[i] === t) i++;
-    if (b.w) while (j < m && xb[j] === t) cb += b.w[j++];
-    else while (j < m && xb[j] === t) j++;
-    const f = a.w ? ca : i / n;
-    const g = b.w ? cb : j / m;
+    if (i < n && xa[i] === t) i++;
+    if (j < m && xb[j] === t) j++;
+    const f = i > 0 ? a.cumulative[i - 1] / a.total : 0;
+    const g = j > 0 ? b.cumulative[j - 1] / b.total : 0;
     const gap = f - g;
-    if (Math.abs(gap) > sup) sup = Math.abs(gap);
+    if (abs(gap) > sup) sup = abs(gap);
     if (i < n || j < m) {
       const next = j >= m || (i < n && xa[i] <= xb[j]) ? xa[i] : xb[j];
       area += gap * gap * (next - t);
@@ -121,5 +87,5 @@ export function ecdfGap(a: SortedWeighted, b: SortedWeighted): { sup: number; sq
  */
 export function ksStatistic(a: ArrayLike<number>, b: ArrayLike<number>, wa?: ArrayLike<number> | null, wb?: ArrayLike<number> | null): number {
   const fn = 'ksStatistic';
-  return ecdfGap(sortedWithWeights(a, wa, 'a', fn), sortedWithWeights(b, wb, 'b', fn)).sup;
+  return ecdfGap(checkedCdf(a, wa, 'a', fn), checkedCdf(b, wb, 'b', fn)).sup;
 }

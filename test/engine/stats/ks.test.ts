@@ -1,4 +1,4 @@
-import { ecdfGap, ksStatistic, sortedWithWeights } from '../../../src/engine/stats/ks';
+import { checkedCdf, ecdfGap, ksStatistic } from '../../../src/engine/stats/ks';
 
 function rng(seed: number): () => number {
   let s = seed >>> 0;
@@ -79,16 +79,17 @@ describe('ksStatistic(a, b, wa, wb) is the two-sample sup |F_a - G_b|', () => {
   });
 });
 
-describe('sortedWithWeights and ecdfGap', () => {
+describe('checkedCdf and ecdfGap', () => {
   test('weights are carried along, equal values merged, and scaled to sum to one', () => {
-    const s = sortedWithWeights([3, 1, 2, 1], [1, 1, 2, 4], 'a', 'f');
-    expect(Array.from(s.x)).toEqual([1, 2, 3]);
-    expect(Array.from(s.w ?? [])).toEqual([0.625, 0.25, 0.125]);
+    const s = checkedCdf([3, 1, 2, 1], [1, 1, 2, 4], 'a', 'f');
+    expect(Array.from(s.values)).toEqual([1, 2, 3]);
+    const shares = Array.from(s.cumulative, (c, k) => (c - (k > 0 ? s.cumulative[k - 1] : 0)) / s.total);
+    expect(shares).toEqual([0.625, 0.25, 0.125]);
   });
 
   test('ecdfGap integrates (F - G)^2 exactly: point masses at 0 and 1 give 1', () => {
     // Source: hand computation
-    const g = ecdfGap(sortedWithWeights([0], null, 'a', 'f'), sortedWithWeights([1], null, 'b', 'f'));
+    const g = ecdfGap(checkedCdf([0], null, 'a', 'f'), checkedCdf([1], null, 'b', 'f'));
     expect(g).toEqual({ sup: 1, squaredIntegral: 1 });
   });
 });
