@@ -1,23 +1,7 @@
 import { execFileSync, spawnSync } from 'child_process';
 import * as path from 'path';
-import { main, type CliIO } from '../../src/cli/main';
+import { runCli as run } from '../helpers/run-cli';
 
-/** Runs the CLI in-process over an in-memory file system. */
-async function run(argv: string[], files: Record<string, string>) {
-  let out = '';
-  let err = '';
-  const io: CliIO = {
-    stdout: (s) => (out += s),
-    stderr: (s) => (err += s),
-    readFile: (p) => {
-      if (!(p in files)) throw Object.assign(new Error('missing'), { code: 'ENOENT' });
-      return files[p];
-    },
-    writeFile: (p, t) => (files[p] = t),
-  };
-  const code = await main(argv, io);
-  return { code, out, err, files };
-}
 
 const S = 'id,x,w\na,3,1\nb,1,1\nc,2,2\n';
 const T = 'id,x,w\na,30,1\nb,10,1\nc,20,1\n';

@@ -6,7 +6,7 @@
  * Source: project rule 8 (seeded randomness only: same inputs + seed => bit-identical output).
  */
 import '../../src/engine/registry';
-import { main, type CliIO } from '../../src/cli/main';
+import { runCli as cli } from '../helpers/run-cli';
 import { parseCSV } from '../../src/cli/csv';
 import { fitMap, listMethods } from '../../src/engine/methods';
 import { points, sample } from '../../src/engine/points';
@@ -37,20 +37,6 @@ function sameBits(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
   return true;
 }
 
-async function cli(argv: string[], files: Record<string, string>): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const io: CliIO = {
-    stdout: (s) => (out += s),
-    stderr: (s) => (err += s),
-    readFile: (p) => {
-      if (!(p in files)) throw Object.assign(new Error('missing'), { code: 'ENOENT' });
-      return files[p];
-    },
-    writeFile: (p, t) => (files[p] = t),
-  };
-  return { code: await main(argv, io), out, err };
-}
 
 const toCSV = (rows: number[][], cols: string[]) => [cols.join(','), ...rows.map((r) => r.map(String).join(','))].join('\n') + '\n';
 

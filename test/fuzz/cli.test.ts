@@ -8,10 +8,10 @@
  * Source: common practice (property-based robustness testing); no expected numbers here.
  */
 import fc from 'fast-check';
-import { main, type CliIO } from '../../src/cli/main';
 import { parseCSV } from '../../src/cli/csv';
 import { listMethods } from '../../src/engine/methods';
 import { anyNumber, options, saysWhatToDo, scaledNumber, shape } from './arbitraries';
+import { runCli as run } from '../helpers/run-cli';
 
 const SLOW = new Set(['entropic', 'gradient-net']);
 const FAST = listMethods().map((m) => m.name).filter((n) => !SLOW.has(n));
@@ -27,28 +27,6 @@ afterAll(() => {
   if (requirementOnly.size > 0) console.log(`messages that only state a requirement (review their wording):\n${[...requirementOnly.values()].join('\n')}`);
 });
 
-async function run(argv: string[], files: Record<string, string>) {
-  let out = '';
-  let err = '';
-  const io: CliIO = {
-    stdout: (s) => (out += s),
-    stderr: (s) => (err += s),
-    readFile: (p) => {
-      if (!Object.prototype.hasOwnProperty.call(files, p)) throw Object.assign(new Error('missing'), { code: 'ENOENT' });
-      return files[p];
-    },
-    writeFile: (p, t) => {
-      files[p] = t;
-    },
-  };
-  let code: number;
-  try {
-    code = await main(argv, io);
-  } catch (e) {
-    throw new Error(`main threw instead of returning an exit code: ${(e as Error)?.stack ?? String(e)}`);
-  }
-  return { code, out, err };
-}
 
 /** A CSV field: a number written as JavaScript or a person would, a blank, text, or a non-finite spelling. */
 const field: fc.Arbitrary<string> = fc.oneof(

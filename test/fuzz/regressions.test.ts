@@ -3,7 +3,6 @@
  * Source: the fuzz runs in this folder (inputs found there, shrunk by hand).
  */
 import '../../src/engine/registry';
-import { main, type CliIO } from '../../src/cli/main';
 import { RemapError } from '../../src/engine/errors';
 import { fitMap } from '../../src/engine/methods';
 import { column, sample } from '../../src/engine/points';
@@ -15,6 +14,7 @@ import { readValues, writeValues } from '../../src/functions/coerce';
 import * as F from '../../src/functions/functions';
 import { forgetAll } from '../../src/functions/store';
 import { installCustomFunctionsStub, StubSheetError } from '../helpers/custom-functions-stub';
+import { runCli as cli } from '../helpers/run-cli';
 
 installCustomFunctionsStub();
 afterEach(() => forgetAll());
@@ -29,20 +29,6 @@ function sheetError(f: () => unknown): StubSheetError {
   throw new Error('expected a sheet error');
 }
 
-async function cli(argv: string[], files: Record<string, string>) {
-  let out = '';
-  let err = '';
-  const io: CliIO = {
-    stdout: (s) => (out += s),
-    stderr: (s) => (err += s),
-    readFile: (p) => {
-      if (!(p in files)) throw Object.assign(new Error('missing'), { code: 'ENOENT' });
-      return files[p];
-    },
-    writeFile: (p, t) => (files[p] = t),
-  };
-  return { code: await main(argv, io), out, err };
-}
 
 describe('quantile/hazen-grid.ts and quantile/knots.ts: weights adding up beyond half the largest double', () => {
   test('hazenGrid keeps positions finite and in [0, 1] when 2 x total weight overflows (was NaN, and the fit then looped for ever)', () => {
