@@ -5,15 +5,13 @@ import type { Sample } from '../points';
 import type { Settings } from '../settings';
 import { weightedMoments } from '../stats/moments';
 import { symmetricEigen } from '../stats/symmetric-eigen';
-import { affineApply } from './affine-apply';
-import { compareFit } from '../assess';
 import { covarianceCondition, ILL_CONDITIONED_RATIO } from './covariance-condition';
 import { gaussianTransport } from './gaussian-transport';
 import { LinearMap } from './linear-map';
 import { checkLinearScale } from './scale-check';
 
 export interface LinearFitOptions {
-  /** Record energy distances and the KS statistic at fit time (default true; off only for timing the map itself). */
+  /** Record energy distances and the KS statistic (default true; computed when diagnostics are first read; off only for timing the map itself). */
   readonly compare?: boolean;
 }
 
@@ -37,7 +35,7 @@ export interface LinearFitOptions {
  * The cost is the Bures closed form (kind 'bures'); minJacobianEigenvalue is
  * the smallest eigenvalue of A (the Jacobian of T everywhere).
  *
- * Cost: O((n + m) d^2 + d^3), plus the fit-time comparisons (see compareFit)
+ * Cost: O((n + m) d^2 + d^3), plus the comparisons (see compareFit) when diagnostics are first read
  * unless `options.compare` is false. Never mutates its inputs.
  * @param source, target validated samples with the same d (finite values, weights checked; prepareFit does this).
  * @param settings resolved settings; `ridge` a number >= 0.
@@ -111,12 +109,8 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
     });
   }
 
-  let fitted: FitRecord = { cost, minJacobianEigenvalue: gt.minEigenvalue, warnings };
-  if (options.compare !== false) {
-    const mapped = affineApply(source, mom1.mean, gt.matrix, mom2.mean, r1.min, r1.max, 'apply');
-    fitted = { ...fitted, ...compareFit(source, source.weights, mapped, target, target.weights) };
-  }
-  return new LinearMap(header, fitted, {
+  const fitted: FitRecord = { cost, minJacobianEigenvalue: gt.minEigenvalue, warnings };
+  const map = new LinearMap(header, fitted, {
     mean1: mom1.mean,
     mean2: mom2.mean,
     cov1,
@@ -128,6 +122,10 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
     targetMin: r2.min,
     targetMax: r2.max,
   });
+  // The energy distances and KS (assess.ts) come from the shared mechanism of every map, computed
+  // when diagnostics or JSON are first asked for.
+  if (options.compare !== false) map.attachSamples(source, target);
+  return map;
 }
 
 function diagonal(cov: ArrayLike<number>, d: number): Float64Array {
