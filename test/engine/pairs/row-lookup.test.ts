@@ -4,6 +4,7 @@ import { points } from '../../../src/engine/points';
 describe('RowLookup', () => {
   test('RowLookup groups identical rows by first appearance and counts them', () => {
     const look = new RowLookup(points([[1, 2], [3, 4], [1, 2], [5, 6], [3, 4], [1, 2]]));
+    // Source: the rows themselves (groups in order of first appearance: [1,2], [3,4], [5,6])
     expect(look.groups).toBe(3);
     expect(Array.from(look.groupOf)).toEqual([0, 1, 0, 2, 1, 0]);
     expect(Array.from(look.groupFirst)).toEqual([0, 1, 3]);

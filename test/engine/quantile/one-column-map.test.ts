@@ -10,6 +10,7 @@ describe('quantile/one-column-map', () => {
 
   test('column k of the output depends only on column k of the input', () => {
     const r = m.apply(points([[0.5, 20], [0.5, 0]]));
+    // Source: hand computation of the sorted matchings 0,1,2 -> 5,6,7 and 0,10,20 -> 1,2,3, interpolated linearly
     expect(Array.from(r.data)).toEqual([5.5, 3, 5.5, 1]);
   });
 

@@ -4,6 +4,7 @@ import { weightedCdf } from '../../../src/engine/stats/weighted-cdf';
 describe('quantile/quantile-column', () => {
   test('apply and invert read the same knots; ranges are the data ranges', () => {
     const c = quantileColumn(weightedCdf([1, 2, 3]), weightedCdf([10, 20, 40]), 'fit');
+    // Source: equal sizes map the i-th smallest source value to the i-th smallest target value (fact of the trade)
     expect(Array.from(c.forward.vals)).toEqual([10, 20, 40]);
     expect(c.inverse.keys).toBe(c.forward.vals);
     expect([c.forward.lo, c.forward.hi, c.inverse.lo, c.inverse.hi]).toEqual([1, 3, 10, 40]);
