@@ -9,7 +9,6 @@
  * Korotin et al. (2021). Goals: best of entropic and gradient-net <= 2 % at d = 2 and <= 5 % at
  * d = 8, and at least 3x below the linear map. Prints wall time per fit next to each figure. */
 import { fitMap } from '../src/engine/methods';
-import '../src/engine/registry';
 import type { Points } from '../src/engine/points';
 import { cosineMetric, knownTruth, l2uvp, totalVariance } from './truth';
 

@@ -174,7 +174,7 @@ async function scenarios(): Promise<void> {
   const src = readCsv('scenarios-model.csv');
   const tgt = readCsv('scenarios-reference.csv');
   const { fitMap } = await import('../src/engine/methods');
-  await import('../src/engine/registry');
+  await import('../src/engine/methods');
   let linearAfter = NaN;
   const runs: [string, string, Record<string, unknown>][] = [
     ['linear', 'linear', {}],

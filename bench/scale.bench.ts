@@ -32,7 +32,7 @@ const MB = 1024 * 1024;
 
 async function child(scenario: string): Promise<void> {
   /* eslint-disable @typescript-eslint/no-require-imports */
-  require('../src/engine/registry');
+  require('../src/engine/methods');
   const { Random } = require('../src/engine/stats/random') as typeof import('../src/engine/stats/random');
   const { fitMapSync } = require('../src/engine/methods') as typeof import('../src/engine/methods');
   const calls = require('../src/functions/calls') as typeof import('../src/functions/calls');

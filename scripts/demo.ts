@@ -5,7 +5,6 @@
  * Run: npm run demo        (about a minute on 2 cores) */
 import * as fs from 'fs';
 import * as path from 'path';
-import '../src/engine/registry';
 import { formatSummary, summariseFormulas } from '../src/headless/fit-summary';
 import { renderPlot } from '../src/headless/plot-spec';
 import { runWorkbook } from '../src/headless/run-workbook';

@@ -4,7 +4,6 @@ import type { TransportMap } from '../engine/map';
 import { parseMapJSON } from '../engine/map-json';
 import { getMethod, listMethods, restoreMap, settingSpecs, startFit } from '../engine/methods';
 import { parseSettingsText } from '../engine/settings';
-import '../engine/registry';
 import { CellError, type CellIn } from '../functions/cells';
 import { readSample, readValues, writeValues, type ReadSample } from '../functions/coerce';
 import { csvCell, formatCSV, parseCSV } from './csv';

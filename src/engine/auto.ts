@@ -1,4 +1,6 @@
 import { listMethods } from './methods';
+import { normaliseName, settingsOf } from './settings';
+import { GRADIENT_NET_SETTINGS } from './gradient-net/settings';
 import type { MethodName } from './map';
 import type { Points } from './points';
 
@@ -43,9 +45,22 @@ export function chooseMethod(source: Points, target: Points, settings: Readonly<
   if (has('entropic') && source.n * target.n <= ENTROPIC_MAX_PAIRS && d <= ENTROPIC_MAX_D) {
     return { method: 'entropic', reason: `${source.n} x ${target.n} rows in ${d} columns: the entropic map fits in seconds and matches the joint shape.` };
   }
-  const budget = Number(settings.time_budget ?? settings['time-budget'] ?? 60);
+  const budget = timeBudgetOf(settings);
   if (has('gradient-net') && budget >= 10) {
     return { method: 'gradient-net', reason: `${source.n} x ${target.n} rows${d > ENTROPIC_MAX_D ? ` in ${d} columns` : ''} is too large for the entropic method: a gradient network trained in minibatches (time budget ${budget} s).` };
   }
   return { method: 'linear', reason: 'The data is too large for the entropic method and there is no time budget for training: the linear map.' };
+}
+
+/**
+ * The gradient network's time budget in the user's raw settings, however the
+ * name is written (`Time_Budget`, `time-budget`), read and checked through its
+ * spec; the spec's default when absent. O(#settings).
+ * @throws RemapError when the value is not a number in the allowed range.
+ */
+function timeBudgetOf(settings: Readonly<Record<string, unknown>>): number {
+  for (const [k, v] of Object.entries(settings)) {
+    if (normaliseName(k) === 'time_budget') return settingsOf(GRADIENT_NET_SETTINGS, { time_budget: v }, 'gradient-net').time_budget;
+  }
+  return settingsOf(GRADIENT_NET_SETTINGS, {}, 'gradient-net').time_budget;
 }

@@ -1,6 +1,4 @@
-/* The engine's whole public API: pure TypeScript numerics, no Office, no DOM.
- * Importing it registers every method. */
-import './registry';
+/* The engine's whole public API: pure TypeScript numerics, no Office, no DOM. */
 
 export { RemapError, isRemapError, type RemapErrorKind } from './errors';
 export { points, column, sample, columnOf, toRows, type Points, type Sample } from './points';

@@ -5,17 +5,23 @@ import type { MethodSpec } from './method';
 import type { Sample } from './points';
 import { COMMON_SETTINGS, resolveSettings, type SettingSpec, type Settings } from './settings';
 import { checkSameColumns, checkSample, checkScale } from './validate';
+import { entropicMethod } from './entropic/method';
+import { gradientNetMethod } from './gradient-net/method';
+import { linearMethod } from './linear/method';
+import { pairsMethod } from './pairs/method';
+import { ordinalMethod } from './quantile/ordinal-method';
+import { quantileMethod } from './quantile/quantile-method';
+import { stepMethod } from './quantile/step-method';
 
-/** Every method the product offers, in the order menus list them. */
-const METHODS: MethodSpec[] = [];
+/**
+ * Every method the product offers, in the order menus list them. The list is
+ * explicit: whoever imports this module sees every method, with no import
+ * done for its side effects. To add a method, add its spec here
+ * (DEVELOPERS.md, "Adding a method").
+ */
+const METHODS: readonly MethodSpec[] = Object.freeze([quantileMethod, stepMethod, ordinalMethod, linearMethod, pairsMethod, entropicMethod, gradientNetMethod]);
 
-/** Registers a method (called once per method in registry.ts). */
-export function registerMethod(spec: MethodSpec): void {
-  if (METHODS.some((m) => m.name === spec.name)) return;
-  METHODS.push(spec);
-}
-
-/** All registered methods. */
+/** All methods, in menu order. */
 export function listMethods(): readonly MethodSpec[] {
   return METHODS;
 }

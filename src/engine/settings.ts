@@ -118,3 +118,37 @@ export function parseSettingsText(text: string): Record<string, string> {
   }
   return out;
 }
+
+/** The value type a spec declares: numbers for number and integer, text for a choice, true/false for boolean. */
+export type SettingValueOf<S extends SettingSpec> = S['type'] extends 'number' | 'integer'
+  ? number
+  : S['type'] extends 'boolean'
+    ? boolean
+    : S extends { readonly choices: readonly (infer C)[] }
+      ? C
+      : string;
+
+/**
+ * The typed settings object of a list of specs, keyed by setting name: a method
+ * declares its specs once (`as const satisfies readonly SettingSpec[]`) and reads
+ * `SettingsOf<typeof SPECS>` instead of raw keys.
+ */
+export type SettingsOf<S extends readonly SettingSpec[]> = { readonly [K in S[number] as K['name']]: SettingValueOf<K> };
+
+/**
+ * The typed view of `settings` for one method's own `specs`: each spec's value,
+ * checked and with its default where missing (so a direct engine call may pass
+ * `{}`); settings not in `specs` (the common ones, such as `tails`) are ignored.
+ * The one way methods read their settings. O(#specs + #settings).
+ * @throws RemapError naming the setting and its allowed values, for a value outside its spec.
+ * @example settingsOf(LINEAR_SETTINGS, { ridge: 0.5, tails: 'clamp' }) // { ridge: 0.5 }
+ */
+export function settingsOf<const S extends readonly SettingSpec[]>(specs: S, settings: Readonly<Record<string, unknown>>, method = 'this method'): SettingsOf<S> {
+  const own: Record<string, unknown> = {};
+  const names = new Set(specs.map((s) => s.name));
+  for (const [k, v] of Object.entries(settings)) {
+    const name = normaliseName(k);
+    if (names.has(name)) own[name] = v;
+  }
+  return resolveSettings(method, specs, own) as unknown as SettingsOf<S>;
+}

@@ -1,7 +1,6 @@
 /* Worksheet functions of the REMAP namespace. Each is JSDoc for Excel's formula
  * tooltips (functions.json is generated from it) and one guarded call into
  * calls.ts; no numeric logic lives here. */
-import '../engine/registry';
 import * as calls from './calls';
 import { guard, toSheetError } from './excel-errors';
 import { setKeeper } from './store';

@@ -1,7 +1,6 @@
 /* The pane's fit worker: runs one fit at a time off the page's thread, so the
  * pane keeps drawing progress and Cancel (which ends this worker) stops any
  * method at once. Same engine, same coercion and same handle as REMAP.FIT. */
-import '../engine/registry';
 import { configureBackend } from '../engine/gradient-net/backend';
 import type { FitReply, FitRequest } from './fit-messages';
 import { runFitJob } from './fit-job';

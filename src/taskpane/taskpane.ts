@@ -11,7 +11,6 @@
  * from the same cells and finds the map at once, so the workbook stays the
  * record and nothing is fitted twice. UI only: every Office call is in src/workbook.
  */
-import '../engine/registry';
 import { chooseMethod } from '../engine/auto';
 import { isRemapError } from '../engine/errors';
 import type { Diagnostics, Progress } from '../engine/map';

@@ -5,7 +5,6 @@
  * functions (data in cells) and the command line (the same data in CSV files).
  * Source: project rule 8 (seeded randomness only: same inputs + seed => bit-identical output).
  */
-import '../../src/engine/registry';
 import { runCli as cli } from '../helpers/run-cli';
 import { parseCSV } from '../../src/cli/csv';
 import { fitMap, listMethods } from '../../src/engine/methods';

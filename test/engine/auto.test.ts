@@ -1,5 +1,4 @@
 import { chooseMethod, ENTROPIC_MAX_PAIRS } from '../../src/engine/auto';
-import '../../src/engine/registry';
 
 const pts = (n: number, d: number) => ({ n, d, data: new Float64Array(n * d) });
 
@@ -27,6 +26,8 @@ describe('chooseMethod: what auto picks, and why', () => {
     expect(5000 * 5000).toBe(ENTROPIC_MAX_PAIRS);
     expect(chooseMethod(pts(20000, 3), pts(20000, 3), {}, true).method).toBe('gradient-net');
     expect(chooseMethod(pts(20000, 3), pts(20000, 3), { time_budget: 5 }, true).method).toBe('linear');
+    // Source: design choice (setting names are case-insensitive and take - or _ everywhere, auto included).
+    expect(chooseMethod(pts(20000, 3), pts(20000, 3), { Time_Budget: '5' }, true).method).toBe('linear');
     expect(chooseMethod(pts(2000, 30), pts(2000, 30), {}, true).method).toBe('gradient-net');
   });
 });

@@ -6,7 +6,6 @@
  * Source: common practice (defensive parsing of untrusted JSON); no computed numbers are expected here
  * beyond bit-identical round trips.
  */
-import '../../src/engine/registry';
 import { RemapError } from '../../src/engine/errors';
 import { checkMapJSON, MAX_MAP_JSON_CHARS, parseMapJSON } from '../../src/engine/map-json';
 import type { MapJSON } from '../../src/engine/map';

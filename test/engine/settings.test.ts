@@ -1,3 +1,4 @@
+import { settingsOf } from '../../src/engine/settings';
 import { COMMON_SETTINGS, parseSettingsText, resolveSettings, type SettingSpec } from '../../src/engine/settings';
 
 const specs: SettingSpec[] = [
@@ -35,5 +36,20 @@ describe('settings', () => {
     const raw = Object.create(null);
     raw['__proto__'] = 1;
     expect(() => resolveSettings('entropic', specs, raw)).toThrow(/Unknown setting "__proto__"/);
+  });
+});
+
+describe('settingsOf(specs, settings) is the typed view of one method\'s own settings', () => {
+  const SPECS = [
+    { name: 'ridge', type: 'number', default: 0, min: 0, describe: 'r' },
+    { name: 'mode', type: 'choice', default: 'a', choices: ['a', 'b'], describe: 'm' },
+  ] as const;
+  // Source: design choice (settingsOf fills defaults and ignores settings of other specs, such as the common tails).
+  test('fills defaults, converts numeric text, and ignores settings it does not declare', () => {
+    expect(settingsOf(SPECS, {})).toEqual({ ridge: 0, mode: 'a' });
+    expect(settingsOf(SPECS, { Ridge: '0.25', tails: 'clamp', mode: 'B' })).toEqual({ ridge: 0.25, mode: 'b' });
+  });
+  test('refuses a value outside its spec, naming the setting', () => {
+    expect(() => settingsOf(SPECS, { ridge: -1 }, 'linear')).toThrow(/setting ridge of method linear must be at least 0, not -1/);
   });
 });

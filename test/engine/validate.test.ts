@@ -1,7 +1,6 @@
 import { checkSameColumns, checkSample, checkScale, MAX_ABS_VALUE, MIN_SPREAD } from '../../src/engine/validate';
 import { sample } from '../../src/engine/points';
 import { fitMap } from '../../src/engine/methods';
-import '../../src/engine/registry';
 
 describe('validate', () => {
   test('checkSample: too few rows, negative and all-zero weights are errors that say what to do', () => {

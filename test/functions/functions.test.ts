@@ -1,5 +1,4 @@
 import * as ss from 'simple-statistics';
-import '../../src/engine/registry';
 import * as F from '../../src/functions/functions';
 import { forgetAll } from '../../src/functions/store';
 import { installCustomFunctionsStub, StubSheetError } from '../helpers/custom-functions-stub';

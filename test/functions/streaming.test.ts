@@ -1,9 +1,5 @@
-import '../../src/engine/registry';
-import { RemapError } from '../../src/engine/errors';
-import type { FitContext, MethodName, TransportMap } from '../../src/engine/map';
-import type { MethodSpec } from '../../src/engine/method';
-import { registerMethod } from '../../src/engine/methods';
-import { quantileMethod } from '../../src/engine/quantile/quantile-method';
+// The gradient-net entry of the method list is replaced by a stand-in that trains for `steps` x 5 ms.
+jest.mock('../../src/engine/gradient-net/method', () => ({ gradientNetMethod: require('../helpers/slow-method').slowMethod('gradient-net') }));
 import { MAX_CELL_TEXT, MAX_RESULT_BYTES } from '../../src/functions/calls';
 import * as F from '../../src/functions/functions';
 import { forgetAll } from '../../src/functions/store';
@@ -21,28 +17,6 @@ async function until(done: () => boolean, limitMs = 30000): Promise<void> {
   while (!done() && Date.now() - t0 < limitMs) await tick(20);
 }
 
-/**
- * A method that trains in the background for this test: `steps` steps of 5 ms,
- * reporting progress and honouring the signal like the engine's trained methods,
- * then returns the quantile map.
- */
-const slowMethod: MethodSpec = {
-  ...quantileMethod,
-  name: 'slow-test' as MethodName,
-  background: true,
-  settings: [{ name: 'steps', type: 'integer', default: 40, min: 1, max: 1000, describe: 'steps' }],
-  fit: async (s, t, settings, ctx: FitContext): Promise<TransportMap> => {
-    const steps = Number(settings.steps);
-    const t0 = Date.now();
-    for (let i = 0; i < steps; i++) {
-      if (ctx.signal?.aborted) throw new RemapError(`fit (slow-test): cancelled at step ${i}.`, 'cancelled');
-      await tick(5);
-      ctx.onProgress?.({ step: i + 1, of: steps, loss: 1 / (i + 1), elapsedMs: Date.now() - t0 });
-    }
-    return quantileMethod.fit(s, t, { tails: 'clamp' }, ctx) as TransportMap;
-  },
-};
-registerMethod(slowMethod);
 
 /** A fake StreamingInvocation recording every result. */
 function invocation(address = 'Sheet1!F2') {
@@ -64,20 +38,20 @@ describe('REMAP.FIT streams', () => {
 
   test('a background fit shows "fitting <method>: ..." text, then the handle', async () => {
     const { inv, results } = invocation();
-    F.fit(src, tgt, 'slow-test', 'steps=30', undefined, undefined, inv);
-    expect(results).toEqual(['fitting slow-test: starting']);
+    F.fit(src, tgt, 'gradient-net', 'steps=30', undefined, undefined, inv);
+    expect(results).toEqual(['fitting gradient-net: starting']);
     await until(() => /^remap:/.test(String(results[results.length - 1])));
     const last = results[results.length - 1] as string;
-    expect(last).toMatch(/^remap:slow-test:8x1:[0-9a-f]{14}$/);
-    expect(results.slice(0, -1).every((r) => typeof r === 'string' && r.startsWith('fitting slow-test:'))).toBe(true);
+    expect(last).toMatch(/^remap:gradient-net:8x1:[0-9a-f]{14}$/);
+    expect(results.slice(0, -1).every((r) => typeof r === 'string' && r.startsWith('fitting gradient-net:'))).toBe(true);
   });
 
   test('a progress text reads "fitting <method>: step s/n (t s)"', async () => {
     const { inv, results, cancel } = invocation();
-    F.fit(src, tgt, 'slow-test', 'steps=400', undefined, undefined, inv);
-    await until(() => results.some((r) => /^fitting slow-test: step \d+\/400/.test(String(r))));
+    F.fit(src, tgt, 'gradient-net', 'steps=400', undefined, undefined, inv);
+    await until(() => results.some((r) => /^fitting gradient-net: step \d+\/400/.test(String(r))));
     cancel();
-    expect(results.some((r) => /^fitting slow-test: step \d+\/400 \(\d+ s\)$/.test(String(r)))).toBe(true);
+    expect(results.some((r) => /^fitting gradient-net: step \d+\/400 \(\d+ s\)$/.test(String(r)))).toBe(true);
   });
 
   test('Excel cancelling the cell (inputs changed, cell cleared) aborts the fit and sets nothing more', async () => {
@@ -86,7 +60,7 @@ describe('REMAP.FIT streams', () => {
     const stopWatching = (await import('../../src/functions/calls')).watchFits((_h, p) => {
       lastStep = p.step;
     });
-    F.fit(src, tgt, 'slow-test', 'steps=401', undefined, undefined, inv);
+    F.fit(src, tgt, 'gradient-net', 'steps=401', undefined, undefined, inv);
     await until(() => lastStep > 0);
     cancel();
     const count = results.length;
@@ -98,8 +72,8 @@ describe('REMAP.FIT streams', () => {
     expect(lastStep).toBeLessThanOrEqual(stepAtCancel + 1); // the fit stopped at its next check of the signal
     // the map was not fitted: the same inputs in another cell start a new fit
     const other = invocation();
-    F.fit(src, tgt, 'slow-test', 'steps=401', undefined, undefined, other.inv);
-    expect(other.results).toEqual(['fitting slow-test: starting']);
+    F.fit(src, tgt, 'gradient-net', 'steps=401', undefined, undefined, other.inv);
+    expect(other.results).toEqual(['fitting gradient-net: starting']);
     other.cancel();
   });
 
@@ -125,7 +99,7 @@ describe('REMAP.FIT streams', () => {
   test('cells that apply a map still fitting say so (#N/A), rather than "not a map"', () => {
     let err: StubSheetError | null = null;
     try {
-      F.apply('fitting slow-test: step 3/40 (0 s)', [[1]]);
+      F.apply('fitting gradient-net: step 3/40 (0 s)', [[1]]);
     } catch (e) {
       err = e as StubSheetError;
     }

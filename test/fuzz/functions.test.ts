@@ -9,7 +9,6 @@
  * Source: common practice (property-based robustness testing); no expected numbers here.
  */
 import fc from 'fast-check';
-import '../../src/engine/registry';
 import { listMethods } from '../../src/engine/methods';
 import * as F from '../../src/functions/functions';
 import { forgetAll, isHandle } from '../../src/functions/store';

@@ -8,7 +8,6 @@
  * Source: common practice (property-based robustness testing); no expected numbers here.
  */
 import fc from 'fast-check';
-import '../../src/engine/registry';
 import { isRemapError } from '../../src/engine/errors';
 import { parseMapJSON } from '../../src/engine/map-json';
 import type { Mapped, TransportMap } from '../../src/engine/map';

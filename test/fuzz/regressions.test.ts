@@ -2,7 +2,6 @@
  * One test per defect the fuzzers found, each on the smallest input that showed it.
  * Source: the fuzz runs in this folder (inputs found there, shrunk by hand).
  */
-import '../../src/engine/registry';
 import { RemapError } from '../../src/engine/errors';
 import { fitMap } from '../../src/engine/methods';
 import { column, sample } from '../../src/engine/points';

@@ -1,4 +1,3 @@
-import '../../src/engine/registry';
 import * as calls from '../../src/functions/calls';
 import { forgetAll } from '../../src/functions/store';
 import { formatSummary, short, summariseFormulas } from '../../src/headless/fit-summary';

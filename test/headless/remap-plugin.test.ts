@@ -1,5 +1,4 @@
 import { DetailedCellError, HyperFormula } from 'hyperformula';
-import '../../src/engine/registry';
 import * as calls from '../../src/functions/calls';
 import { forgetAll } from '../../src/functions/store';
 import { REPORT_ROWS, registerRemapPlugin } from '../../src/headless/remap-plugin';

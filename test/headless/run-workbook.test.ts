@@ -1,5 +1,4 @@
 import { Workbook } from 'exceljs';
-import '../../src/engine/registry';
 import { fitMap } from '../../src/engine/methods';
 import { sample } from '../../src/engine/points';
 import { forgetAll, recall } from '../../src/functions/store';

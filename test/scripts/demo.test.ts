@@ -2,7 +2,6 @@ import * as fs from 'fs';
 import * as os from 'os';
 import * as path from 'path';
 import { ValueType, Workbook } from 'exceljs';
-import '../../src/engine/registry';
 import { parseCSV } from '../../src/cli/csv';
 import { fitMap } from '../../src/engine/methods';
 import { sample, type Points } from '../../src/engine/points';

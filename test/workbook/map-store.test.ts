@@ -1,4 +1,3 @@
-import '../../src/engine/registry';
 import * as F from '../../src/functions/functions';
 import type { TransportMap } from '../../src/engine/map';
 import { forgetAll, resolveMap, setKeeper } from '../../src/functions/store';

@@ -1,8 +1,7 @@
-import { RemapError } from '../errors';
-import type { SettingSpec, Settings } from '../settings';
+import { settingsOf, type SettingSpec, type Settings } from '../settings';
 
-/** The entropic method's own settings (the common `tails` setting is added by the registry and not used: see EntropicMap). */
-export const ENTROPIC_SETTINGS: readonly SettingSpec[] = [
+/** The entropic method's own settings (the common `tails` setting is added by methods.ts and not used: see EntropicMap). */
+export const ENTROPIC_SETTINGS = [
   {
     name: 'eps',
     type: 'number',
@@ -37,7 +36,7 @@ export const ENTROPIC_SETTINGS: readonly SettingSpec[] = [
     max: 4294967295,
     describe: 'Seed for the (at most 200) source rows on which the Jacobian\'s smallest eigenvalue is checked.',
   },
-];
+] as const satisfies readonly SettingSpec[];
 
 /** The entropic settings as numbers. */
 export interface EntropicSettings {
@@ -55,15 +54,6 @@ export interface EntropicSettings {
  * @example readEntropicSettings({ eps: 0.5 }) // { eps: 0.5, maxIterations: 1000, tolerance: 1e-4, seed: 1 }
  */
 export function readEntropicSettings(s: Settings): EntropicSettings {
-  const num = (name: string): number => {
-    const spec = ENTROPIC_SETTINGS.find((x) => x.name === name) as SettingSpec;
-    const v = s[name] ?? spec.default;
-    if (typeof v !== 'number' || !Number.isFinite(v)) throw new RemapError(`fit (entropic): setting ${name} must be a finite number, not "${String(v)}".`);
-    if ((spec.min !== undefined && (spec.minExclusive ? v <= spec.min : v < spec.min)) || (spec.max !== undefined && v > spec.max)) {
-      throw new RemapError(`fit (entropic): setting ${name} is ${v}, outside its allowed range; see the method's settings.`);
-    }
-    if (spec.type === 'integer' && !Number.isInteger(v)) throw new RemapError(`fit (entropic): setting ${name} must be a whole number, not ${v}.`);
-    return v;
-  };
-  return { eps: num('eps'), maxIterations: num('max_iterations'), tolerance: num('tolerance'), seed: num('seed') };
+  const v = settingsOf(ENTROPIC_SETTINGS, s, 'entropic');
+  return { eps: v.eps, maxIterations: v.max_iterations, tolerance: v.tolerance, seed: v.seed };
 }

@@ -2,8 +2,7 @@ import { sizeWarnings, type MapHeader } from '../base';
 import type { FitContext, MapJSON, TransportMap } from '../map';
 import type { MethodSpec } from '../method';
 import type { Sample } from '../points';
-import type { Settings } from '../settings';
-import type { BackendName } from './backend';
+import { settingsOf, type Settings } from '../settings';
 import { fitRecordOf } from './fit-record';
 import { GradientNetMap, type Frame } from './fitted-map';
 import { gaussianLinearMap } from './gaussian-linear-map';
@@ -38,12 +37,10 @@ export const CHECK_PATIENCE = 400;
  */
 export async function fitGradientNet(source: Sample, target: Sample, settings: Settings, ctx: FitContext = {}): Promise<GradientNetMap> {
   const d = source.d;
-  const hidden = Number(settings.hidden);
-  const layers = Number(settings.layers);
-  const steps = Number(settings.steps);
-  const seed = Number(settings.seed);
-  const blur = Number(settings.blur) > 0 ? Number(settings.blur) : autoBlur(d);
-  const timeBudget = Number(settings.time_budget);
+  const own = settingsOf(GRADIENT_NET_SETTINGS, settings, 'gradient-net');
+  const { hidden, layers, steps, seed } = own;
+  const blur = own.blur > 0 ? own.blur : autoBlur(d);
+  const timeBudget = own.time_budget;
   const ss = standardiserOf(source);
   const ts = standardiserOf(target);
   const xs = standardise(source.data, d, ss);
@@ -68,11 +65,11 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
     start,
     {
       steps,
-      learningRate: Number(settings.learning_rate),
-      batch: Number(settings.batch),
+      learningRate: own.learning_rate,
+      batch: own.batch,
       seed,
       timeBudgetMs: timeBudget * 1000,
-      backend: settings.backend as BackendName,
+      backend: own.backend,
       blur,
       sinkhornIterations: SINKHORN_ITERATIONS,
     },

@@ -3,9 +3,9 @@ import { MAX_HIDDEN, MAX_LAYERS } from './network-params';
 
 /**
  * The gradient-net method's own settings (the common `tails` is added by the
- * method registry). Defaults chosen from bench/gradient-net.bench.ts.
+ * method list in methods.ts). Defaults chosen from bench/gradient-net.bench.ts.
  */
-export const GRADIENT_NET_SETTINGS: readonly SettingSpec[] = [
+export const GRADIENT_NET_SETTINGS = [
   { name: 'hidden', type: 'integer', default: 64, min: 1, max: MAX_HIDDEN, describe: 'Hidden units of the network (1 to 1024).' },
   {
     name: 'layers',
@@ -22,4 +22,4 @@ export const GRADIENT_NET_SETTINGS: readonly SettingSpec[] = [
   { name: 'seed', type: 'integer', default: 0, min: 0, max: 4294967295, describe: 'Seed of the initial weights and batch order.' },
   { name: 'time_budget', type: 'number', default: 60, min: 0, minExclusive: true, max: 86400, describe: 'Seconds of training at most; the fit stops there with a warning.' },
   { name: 'backend', type: 'choice', default: 'wasm', choices: ['wasm', 'cpu'], describe: 'Tensor backend: wasm (fast, falls back to cpu if it cannot load) or cpu.' },
-];
+] as const satisfies readonly SettingSpec[];

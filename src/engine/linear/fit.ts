@@ -2,7 +2,8 @@ import { sizeWarnings, type MapHeader } from '../base';
 import { RemapError } from '../errors';
 import type { CostReport, FitContext, FitRecord, Warning } from '../map';
 import type { Sample } from '../points';
-import type { Settings } from '../settings';
+import { settingsOf, type Settings } from '../settings';
+import { LINEAR_SETTINGS } from './settings';
 import { weightedMoments } from '../stats/moments';
 import { symmetricEigen } from '../stats/symmetric-eigen';
 import { covarianceCondition, ILL_CONDITIONED_RATIO } from './covariance-condition';
@@ -46,10 +47,7 @@ export interface LinearFitOptions {
  */
 export function fitLinear(source: Sample, target: Sample, settings: Settings, ctx: FitContext = {}, options: LinearFitOptions = {}): LinearMap {
   const fn = 'fit (linear)';
-  const ridge = settings.ridge === undefined ? 0 : settings.ridge;
-  if (typeof ridge !== 'number' || !(ridge >= 0) || !Number.isFinite(ridge)) {
-    throw new RemapError(`${fn}: the setting ridge is ${String(ridge)}; give a number of at least 0.`);
-  }
+  const { ridge } = settingsOf(LINEAR_SETTINGS, settings, 'linear');
   if (source.d !== target.d) throw new RemapError(`${fn}: the source has ${source.d} columns and the target ${target.d}; give both the same columns.`);
   const d = source.d;
   const columns = ctx.columns ?? null;

@@ -41,7 +41,7 @@ export function fitPairs(source: Sample, target: Sample, settings: Settings, ctx
   return PairsMap.fromMatch(source, target, found.match, header, found.augmentations);
 }
 
-/** The pairs method, for the registry. */
+/** The pairs method, as methods.ts lists it. */
 export const pairsMethod: MethodSpec = {
   name: 'pairs',
   summary: 'Exact optimal one-to-one pairing of source and target rows (samples of equal size); maps the source rows only.',

@@ -1,5 +1,5 @@
 import { entropicMethod } from '../../../src/engine/entropic/method';
-import { fitMap, registerMethod, restoreMap } from '../../../src/engine/methods';
+import { fitMap, restoreMap } from '../../../src/engine/methods';
 import { sample } from '../../../src/engine/points';
 
 describe('entropicMethod', () => {
@@ -12,7 +12,6 @@ describe('entropicMethod', () => {
   });
 
   test('fits through fitMap with text settings and restores through restoreMap', async () => {
-    registerMethod(entropicMethod);
     const src = sample([[0, 0], [1, 0], [0, 1], [1, 1]]);
     const tgt = sample([[5, 5], [7, 5], [5, 7], [7, 7]], [1, 2, 1, 2]);
     const map = await fitMap('entropic', src, tgt, { EPS: '0.5', tolerance: '1e-9' });

@@ -161,7 +161,7 @@ describe('fitLinear(source, target, settings) fits T(x) = m2 + A (x - m1)', () =
     } catch (e) {
       caught = e;
     }
-    expect(isRemapError(caught) && /ridge is -1/.test(caught.message)).toBe(true);
+    expect(isRemapError(caught) && /setting ridge of method linear must be at least 0, not -1/.test(caught.message)).toBe(true);
   });
 
   test('inputs are not mutated', () => {

@@ -2,11 +2,9 @@ import { parseMapJSON } from '../../../src/engine/map-json';
 import { fitLinear } from '../../../src/engine/linear/fit';
 import { LinearMap } from '../../../src/engine/linear/linear-map';
 import { linearMethod } from '../../../src/engine/linear/method';
-import { registerMethod } from '../../../src/engine/methods';
 import type { MapJSON } from '../../../src/engine/map';
 import type { Sample } from '../../../src/engine/points';
 
-registerMethod(linearMethod);
 
 function rng(seed: number): () => number {
   let s = seed >>> 0;

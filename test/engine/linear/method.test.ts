@@ -1,10 +1,9 @@
 import { linearMethod } from '../../../src/engine/linear/method';
-import { fitMapSync, getMethod, registerMethod, restoreMap, settingSpecs } from '../../../src/engine/methods';
+import { fitMapSync, getMethod, restoreMap, settingSpecs } from '../../../src/engine/methods';
 import { sample } from '../../../src/engine/points';
 
-registerMethod(linearMethod);
 
-describe('linearMethod: the registry entry of the linear map', () => {
+describe('linearMethod: the method entry of the linear map', () => {
   test('declares a joint, weighted method needing d + 2 rows, with a ridge setting', () => {
     expect(linearMethod.name).toBe('linear');
     expect(linearMethod.shape).toBe('joint');

@@ -1,10 +1,9 @@
 import { RemapError } from '../../../src/engine/errors';
 import type { Progress } from '../../../src/engine/map';
-import { fitMap, fitMapSync, prepareFit, registerMethod, restoreMap } from '../../../src/engine/methods';
+import { fitMap, fitMapSync, prepareFit, restoreMap } from '../../../src/engine/methods';
 import { fitPairs, pairsMethod } from '../../../src/engine/pairs/method';
 import { column, sample, toRows } from '../../../src/engine/points';
 
-registerMethod(pairsMethod);
 
 function rng(seed: number): () => number {
   let s = seed;
