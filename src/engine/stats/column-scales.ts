@@ -1,4 +1,5 @@
 import type { Points, Sample } from '../points';
+import type { SettingSpec } from '../settings';
 
 /**
  * Per-column scales for fitting joint maps in standardised units.
@@ -20,6 +21,21 @@ import type { Points, Sample } from '../points';
 
 /** Which units a joint method fits in (the setting `units`). */
 export type ColumnUnits = 'standardised' | 'raw';
+
+/**
+ * The `units` setting every joint method (linear, pairs, entropic,
+ * gradient-net) takes: `standardised` (default) fits with each column divided
+ * by its pooled spread (see above), `raw` with plain squared distance in the
+ * data's own units, where the widest column dominates.
+ */
+export const UNITS_SETTING = {
+  name: 'units',
+  type: 'choice',
+  default: 'standardised',
+  choices: ['standardised', 'raw'],
+  describe:
+    'standardised (default): fit with each column divided by its pooled spread, so columns in different units count alike (the map is optimal for that weighted cost); raw: plain squared distance in the data\'s own units, where the widest column dominates.',
+} as const satisfies SettingSpec;
 
 /**
  * s_k = sqrt((var_source(k) + var_target(k)) / 2), weighted by each sample's
