@@ -1,7 +1,7 @@
 import { COMPARISON_MAX_ROWS, COMPARISON_SEED, compareFit, comparisonRows, type Comparisons } from './assess';
 import { labelCost } from './cost-label';
 import { RemapError } from './errors';
-import type { ComparisonRows, Diagnostics, FitRecord, LabelledCost, MapJSON, Mapped, MethodName, RowCounts, TransportMap, Warning } from './map';
+import type { ComparisonRows, Diagnostics, FitContext, FitRecord, LabelledCost, MapJSON, Mapped, MethodName, RowCounts, TransportMap, Warning } from './map';
 import { outsideText } from './outside';
 import { kishEffectiveSize } from './stats/effective-size';
 import type { Points, Sample } from './points';
@@ -15,6 +15,27 @@ export interface MapHeader {
   readonly columns: readonly string[] | null;
   readonly n: { readonly source: number; readonly target: number };
   readonly dropped: { readonly source: number; readonly target: number };
+}
+
+/**
+ * The header of a map fitted from `source` and `target`: what every method records the same way.
+ * O(1).
+ * @example fitHeader('linear', src, tgt, settings, {}).n // { source: src.n, target: tgt.n }
+ */
+export function fitHeader(method: MethodName, source: Points, target: Points, settings: Settings, ctx: FitContext): MapHeader {
+  return {
+    method,
+    d: source.d,
+    settings,
+    columns: ctx.columns ?? null,
+    n: { source: source.n, target: target.n },
+    dropped: ctx.dropped ?? { source: 0, target: 0 },
+  };
+}
+
+/** The header of a map restored from JSON whose envelope `parseMapJSON` has checked. O(1). */
+export function jsonHeader(json: MapJSON): MapHeader {
+  return { method: json.method, d: json.d, settings: json.settings, columns: json.columns, n: json.n, dropped: json.dropped };
 }
 
 /** The line every report shows, warnings or not. */

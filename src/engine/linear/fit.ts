@@ -1,4 +1,4 @@
-import { sizeWarnings, type MapHeader } from '../base';
+import { fitHeader, sizeWarnings, type MapHeader } from '../base';
 import { RemapError } from '../errors';
 import type { CostReport, FitContext, FitRecord, Warning } from '../map';
 import type { Sample } from '../points';
@@ -104,14 +104,7 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
         : ' The map was fitted in the data\'s own units (units=raw), where the widest column dominates.'),
   };
 
-  const header: MapHeader = {
-    method: 'linear',
-    d,
-    settings,
-    columns,
-    n: { source: source.n, target: target.n },
-    dropped: ctx.dropped ?? { source: 0, target: 0 },
-  };
+  const header = fitHeader('linear', source, target, settings, { ...ctx, columns });
   const effectiveSize = { source: kishEffectiveSize(source.weights, source.n), target: kishEffectiveSize(target.weights, target.n) };
   const warnings: Warning[] = sizeWarnings(header, effectiveSize);
   if (ridge > 0) {

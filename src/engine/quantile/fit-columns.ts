@@ -1,5 +1,5 @@
 import { RemapError } from '../errors';
-import type { MapHeader } from '../base';
+import { fitHeader, jsonHeader, type MapHeader } from '../base';
 import { sizeWarnings } from '../base';
 import type { CostReport, FitContext, FitRecord, MapJSON, MethodName, Warning } from '../map';
 import { columnOf, type Sample } from '../points';
@@ -41,14 +41,7 @@ export interface ColumnRecipe {
  */
 export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sample, settings: Settings, ctx: FitContext): OneColumnMap {
   const d = source.d;
-  const header: MapHeader = {
-    method: recipe.method,
-    d,
-    settings,
-    columns: ctx.columns ?? null,
-    n: { source: source.n, target: target.n },
-    dropped: ctx.dropped ?? { source: 0, target: 0 },
-  };
+  const header = fitHeader(recipe.method, source, target, settings, ctx);
   const columns: ColumnMap[] = [];
   const w2: number[] = [];
   let w1 = 0;
@@ -131,14 +124,7 @@ export function restoreOneColumnMap(recipe: ColumnRecipe, json: MapJSON): OneCol
     throw new RemapError(`${where}: the saved map should hold ${json.d} fitted column${json.d === 1 ? '' : 's'} but does not; the saved map is damaged. Fit the map again.`);
   }
   const columns = saved.map((raw, k) => recipe.restore(raw, `${where}, column ${k + 1}`));
-  const header: MapHeader = {
-    method: recipe.method,
-    d: json.d,
-    settings: json.settings,
-    columns: json.columns,
-    n: json.n,
-    dropped: json.dropped,
-  };
+  const header = { ...jsonHeader(json), method: recipe.method };
   return new OneColumnMap(header, json.fitted, columns);
 }
 
