@@ -49,3 +49,9 @@ export { GradientNetMap, type Frame } from './gradient-net/fitted-map';
 export { configureBackend, type BackendOptions, type BackendName } from './gradient-net/backend';
 export { GRADIENT_NET_SETTINGS } from './gradient-net/settings';
 export type { NetworkParams } from './gradient-net/network-params';
+
+export { fitGroupedMap, fitGroupedMapSync, type GroupedFitOptions } from './groups/fit-grouped';
+export { GroupedMap, type GroupEntry, type GroupReport, type GroupedReport, type GroupedMapJSON, type GroupFallback, type GroupSizes } from './groups/grouped-map';
+export { parseGroupedMapJSON, checkGroupedMapJSON, restoreGroupedMap, isGroupedMapJSON } from './groups/grouped-json';
+export { groupKey, groupRows, type GroupLabel, type GroupRows } from './groups/group-labels';
+export { kishRows } from './groups/effective-rows';
