@@ -55,3 +55,7 @@ export { GroupedMap, type GroupEntry, type GroupReport, type GroupedReport, type
 export { parseGroupedMapJSON, checkGroupedMapJSON, restoreGroupedMap, isGroupedMapJSON } from './groups/grouped-json';
 export { groupKey, groupRows, type GroupLabel, type GroupRows } from './groups/group-labels';
 export { kishRows } from './groups/effective-rows';
+export { fitFromTables, COARSE_POINTS, COARSE_STEP, type Distribution1d, type TableBeyond } from './tables/fit-from-tables';
+export { quantileTable, type QuantileTable } from './tables/quantile-table';
+export { frequencyTable, frequencySample, frequencyTotal, type FrequencyTable } from './tables/frequency-table';
+export { tableInterpolationError, type InterpolationError } from './tables/interpolation-error';
