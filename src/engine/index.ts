@@ -59,3 +59,8 @@ export { fitFromTables, COARSE_POINTS, COARSE_STEP, type Distribution1d, type Ta
 export { quantileTable, type QuantileTable } from './tables/quantile-table';
 export { frequencyTable, frequencySample, frequencyTotal, type FrequencyTable } from './tables/frequency-table';
 export { tableInterpolationError, type InterpolationError } from './tables/interpolation-error';
+export { bootstrapBounds, type BootstrapOptions } from './uncertainty/bootstrap-bounds';
+export { replicateBounds, type ReplicateOptions, type ReplicateWeights } from './uncertainty/replicate-bounds';
+export { replicateMultiplier, replicateVariance, type ReplicateKind, type ReplicateScheme } from './uncertainty/replicate-variance';
+export type { MappedBounds } from './uncertainty/mapped-bounds';
+export { normalCdf, normalQuantile } from './uncertainty/normal-quantile';
