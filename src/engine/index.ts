@@ -53,3 +53,18 @@ export { GradientNetMap, type Frame } from './gradient-net/fitted-map';
 export { configureBackend, type BackendOptions, type BackendName } from './gradient-net/backend';
 export { GRADIENT_NET_SETTINGS } from './gradient-net/settings';
 export type { NetworkParams } from './gradient-net/network-params';
+
+export { fitGroupedMap, fitGroupedMapSync, type GroupedFitOptions } from './groups/fit-grouped';
+export { GroupedMap, type GroupEntry, type GroupReport, type GroupedReport, type GroupedMapJSON, type GroupFallback, type GroupSizes } from './groups/grouped-map';
+export { parseGroupedMapJSON, checkGroupedMapJSON, restoreGroupedMap, isGroupedMapJSON } from './groups/grouped-json';
+export { groupKey, groupRows, type GroupLabel, type GroupRows } from './groups/group-labels';
+export { kishRows } from './groups/effective-rows';
+export { fitFromTables, COARSE_POINTS, COARSE_STEP, type Distribution1d, type TableBeyond } from './tables/fit-from-tables';
+export { quantileTable, type QuantileTable } from './tables/quantile-table';
+export { frequencyTable, frequencySample, frequencyTotal, type FrequencyTable } from './tables/frequency-table';
+export { tableInterpolationError, type InterpolationError } from './tables/interpolation-error';
+export { bootstrapBounds, type BootstrapOptions } from './uncertainty/bootstrap-bounds';
+export { replicateBounds, type ReplicateOptions, type ReplicateWeights } from './uncertainty/replicate-bounds';
+export { replicateMultiplier, replicateVariance, type ReplicateKind, type ReplicateScheme } from './uncertainty/replicate-variance';
+export type { MappedBounds } from './uncertainty/mapped-bounds';
+export { normalCdf, normalQuantile } from './uncertainty/normal-quantile';
