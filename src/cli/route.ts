@@ -1,4 +1,3 @@
-import { DuckDBInstance } from '@duckdb/node-api';
 import { RemapError } from '../engine/errors';
 import { mapToSql } from '../engine/export/map-sql';
 import { fitLinearFromMoments } from '../engine/linear/from-moments';
@@ -124,6 +123,8 @@ function fitFromMoments(command: string, flags: Record<string, string>, io: Rout
 
 /** A Parquet file's columns as plain CSV text: numeric columns as doubles, others left blank (so they are not data columns). */
 async function parquetAsCSV(path: string): Promise<string> {
+  // Loaded here, not at start: the native library is only needed for Parquet.
+  const { DuckDBInstance } = await import('@duckdb/node-api');
   const db = await DuckDBInstance.create(':memory:');
   const conn = await db.connect();
   try {
