@@ -94,7 +94,8 @@ export type WarningCode =
   | 'source-rows-only'
   | 'time-budget'
   | 'unequal-sizes'
-  | 'different-rows';
+  | 'different-rows'
+  | 'compacted';
 
 /** A plain-language caution with what to do about it. */
 export interface Warning {

@@ -6,7 +6,6 @@ import { settingsOf, type Settings } from '../settings';
 import { LINEAR_SETTINGS } from './settings';
 import { weightedMoments } from '../stats/moments';
 import { symmetricEigen } from '../stats/symmetric-eigen';
-import { pooledColumnScales } from '../stats/column-scales';
 import { kishEffectiveSize } from '../stats/effective-size';
 import { gaussianW2Squared } from './bures';
 import { covarianceCondition, ILL_CONDITIONED_RATIO } from './covariance-condition';
@@ -50,27 +49,59 @@ export interface LinearFitOptions {
  */
 export function fitLinear(source: Sample, target: Sample, settings: Settings, ctx: FitContext = {}, options: LinearFitOptions = {}): LinearMap {
   const fn = 'fit (linear)';
-  const { ridge, units } = settingsOf(LINEAR_SETTINGS, settings, 'linear');
   if (source.d !== target.d) throw new RemapError(`${fn}: the source has ${source.d} columns and the target ${target.d}; give both the same columns.`);
-  const d = source.d;
-  const columns = ctx.columns ?? null;
+  const summary = (s: Sample): LinearSummary => {
+    const m = weightedMoments(s, s.weights); // ranges over rows of positive weight come from the moments' own pass
+    return { mean: m.mean, cov: m.cov, min: m.min, max: m.max, varies: varies(m), rows: positiveRows(s), effectiveSize: kishEffectiveSize(s.weights, s.n) };
+  };
+  const header = fitHeader('linear', source, target, settings, ctx);
+  const map = linearMapFromSummaries(summary(source), summary(target), settings, header, fn);
+  // The energy distances and KS (assess.ts) come from the shared mechanism of every map, computed
+  // when diagnostics or JSON are first asked for.
+  if (options.compare !== false) map.attachSamples(source, target);
+  return map;
+}
 
-  const mom1 = weightedMoments(source, source.weights);
-  const mom2 = weightedMoments(target, target.weights);
-  const r1 = mom1; // per-column ranges over rows of positive weight, from the moments' own pass
-  const r2 = mom2;
-  checkLinearScale(diagonal(mom1.cov, d), diagonal(mom2.cov, d), varies(r1), varies(r2), fn);
+/** What the linear map needs of a sample: moments (divided by the total weight), ranges and sizes. */
+export interface LinearSummary {
+  readonly mean: ArrayLike<number>;
+  /** Row-major d x d covariance, divided by the total weight (not n - 1). */
+  readonly cov: ArrayLike<number>;
+  /** Per-column range over rows of positive weight (-Infinity / Infinity when unknown). */
+  readonly min: Float64Array;
+  readonly max: Float64Array;
+  /** Per column: does it take more than one value? */
+  readonly varies: readonly boolean[];
+  /** Rows of positive weight (for messages). */
+  readonly rows: number;
+  /** Kish's effective number of rows. */
+  readonly effectiveSize: number;
+}
+
+/**
+ * The linear map from two samples' summaries: the one formula behind `fitLinear`
+ * (rows) and `fitLinearFromMoments` (summaries a database computed), so both
+ * give the same map for the same moments. In standardised units (the default)
+ * each column is divided by s_k = sqrt((var_source(k) + var_target(k)) / 2), the
+ * pooled spread of column-scales.ts computed from these covariances. O(d^3).
+ * @throws RemapError as fitLinear.
+ */
+export function linearMapFromSummaries(sum1: LinearSummary, sum2: LinearSummary, settings: Settings, header: MapHeader, fn: string): LinearMap {
+  const { ridge, units } = settingsOf(LINEAR_SETTINGS, settings, 'linear');
+  const d = header.d;
+  const columns = header.columns;
+  checkLinearScale(diagonal(sum1.cov, d), diagonal(sum2.cov, d), sum1.varies, sum2.varies, fn);
   // Fitted units: raw, or each column divided by its pooled spread s_k (column-scales.ts). The ridge is added in them.
-  const scales = units === 'standardised' ? pooledColumnScales(source, target) : null;
-  const cov1 = scales ? scaledCovariance(mom1.cov, scales, d) : Float64Array.from(mom1.cov);
-  const cov2 = scales ? scaledCovariance(mom2.cov, scales, d) : Float64Array.from(mom2.cov);
+  const scales = units === 'standardised' ? pooledScales(sum1.cov, sum2.cov, d) : null;
+  const cov1 = scales ? scaledCovariance(sum1.cov, scales, d) : Float64Array.from(sum1.cov);
+  const cov2 = scales ? scaledCovariance(sum2.cov, scales, d) : Float64Array.from(sum2.cov);
   for (let k = 0; k < d; k++) {
     cov1[k * d + k] += ridge;
     cov2[k * d + k] += ridge;
   }
-  if (ridge > 0) checkLinearScale(diagonal(cov1, d), diagonal(cov2, d), varies(r1), varies(r2), fn);
-  const ratio1 = covarianceCondition(cov1, d, { which: 'source', columns, rows: positiveRows(source), ridge, fn, units, varies: varies(r1) });
-  const ratio2 = covarianceCondition(cov2, d, { which: 'target', columns, rows: positiveRows(target), ridge, fn, units, varies: varies(r2) });
+  if (ridge > 0) checkLinearScale(diagonal(cov1, d), diagonal(cov2, d), sum1.varies, sum2.varies, fn);
+  const ratio1 = covarianceCondition(cov1, d, { which: 'source', columns, rows: sum1.rows, ridge, fn, units, varies: sum1.varies });
+  const ratio2 = covarianceCondition(cov2, d, { which: 'target', columns, rows: sum2.rows, ridge, fn, units, varies: sum2.varies });
   const eig1 = symmetricEigen(cov1, d);
   const gt = gaussianTransport(eig1, cov1, cov2);
 
@@ -78,12 +109,12 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
   const rawCov1 = scales ? unscaledCovariance(cov1, scales, d) : cov1;
   const rawCov2 = scales ? unscaledCovariance(cov2, scales, d) : cov2;
   let meanPart = 0;
-  for (let k = 0; k < d; k++) meanPart += (mom1.mean[k] - mom2.mean[k]) ** 2;
+  for (let k = 0; k < d; k++) meanPart += (sum1.mean[k] - sum2.mean[k]) ** 2;
   // In raw units the cost is the Bures closed form of the raw moments; when the fit is in standardised units that
   // is a separate closed form (the fitted map minimises the spread-weighted cost, whose value is gt's).
-  const w2Squared = scales ? gaussianW2Squared(mom1.mean, rawCov1, mom2.mean, rawCov2) : meanPart + gt.covarianceTerm;
+  const w2Squared = scales ? gaussianW2Squared(sum1.mean, rawCov1, sum2.mean, rawCov2) : meanPart + gt.covarianceTerm;
   let scaledPart = 0;
-  if (scales) for (let k = 0; k < d; k++) scaledPart += ((mom1.mean[k] - mom2.mean[k]) / scales[k]) ** 2;
+  if (scales) for (let k = 0; k < d; k++) scaledPart += ((sum1.mean[k] - sum2.mean[k]) / scales[k]) ** 2;
   const cost: CostReport = {
     kind: 'bures',
     w2Squared,
@@ -104,8 +135,7 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
         : ' The map was fitted in the data\'s own units (units=raw), where the widest column dominates.'),
   };
 
-  const header = fitHeader('linear', source, target, settings, { ...ctx, columns });
-  const effectiveSize = { source: kishEffectiveSize(source.weights, source.n), target: kishEffectiveSize(target.weights, target.n) };
+  const effectiveSize = { source: sum1.effectiveSize, target: sum2.effectiveSize };
   const warnings: Warning[] = sizeWarnings(header, effectiveSize);
   if (ridge > 0) {
     const inUnits = scales ? ' (in standardised units: a share of each column\'s pooled variance)' : '';
@@ -125,22 +155,28 @@ export function fitLinear(source: Sample, target: Sample, settings: Settings, ct
   }
 
   const fitted: FitRecord = { cost, minJacobianEigenvalue: gt.minEigenvalue, effectiveSize, warnings };
-  const map = new LinearMap(header, fitted, {
-    mean1: mom1.mean,
-    mean2: mom2.mean,
+  return new LinearMap(header, fitted, {
+    mean1: Float64Array.from(sum1.mean),
+    mean2: Float64Array.from(sum2.mean),
     cov1: rawCov1,
     cov2: rawCov2,
     matrix: scales ? conjugate(gt.matrix, scales, d) : gt.matrix,
     inverse: scales ? conjugate(gt.inverse, scales, d) : gt.inverse,
-    sourceMin: r1.min,
-    sourceMax: r1.max,
-    targetMin: r2.min,
-    targetMax: r2.max,
+    sourceMin: sum1.min,
+    sourceMax: sum1.max,
+    targetMin: sum2.min,
+    targetMax: sum2.max,
   });
-  // The energy distances and KS (assess.ts) come from the shared mechanism of every map, computed
-  // when diagnostics or JSON are first asked for.
-  if (options.compare !== false) map.attachSamples(source, target);
-  return map;
+}
+
+/** s_k = sqrt((C1_kk + C2_kk) / 2), 1 where that is 0 or not finite: pooledColumnScales from covariances. O(d). */
+function pooledScales(cov1: ArrayLike<number>, cov2: ArrayLike<number>, d: number): Float64Array {
+  const out = new Float64Array(d);
+  for (let k = 0; k < d; k++) {
+    const s = Math.sqrt((cov1[k * d + k] + cov2[k * d + k]) / 2);
+    out[k] = s > 0 && Number.isFinite(s) ? s : 1;
+  }
+  return out;
 }
 
 /** D C D with D = diag(1 / s): the covariance of the columns divided by s. O(d^2). */

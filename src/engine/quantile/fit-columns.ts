@@ -3,7 +3,7 @@ import { fitHeader, jsonHeader, type MapHeader } from '../base';
 import { sizeWarnings } from '../base';
 import type { CostReport, FitContext, FitRecord, MapJSON, MethodName, Warning } from '../map';
 import { columnOf, type Sample } from '../points';
-import { TAILS_SETTING, type Settings } from '../settings';
+import { TAILS_SETTING, type SettingSpec, type Settings } from '../settings';
 import { outsideBothTails } from '../outside';
 import type { MethodSpec } from '../method';
 import { sortedCopy, sortWithOrder, sortWithWeights, type SortedWithOrder } from '../stats/sort';
@@ -18,7 +18,9 @@ import { OneColumnMap } from './one-column-map';
 export interface ColumnRecipe {
   readonly method: MethodName;
   /** Builds the column map from the two merged CDFs. `where` starts error messages. */
-  build(src: WeightedCdf, tgt: WeightedCdf, where: string): ColumnMap;
+  build(src: WeightedCdf, tgt: WeightedCdf, where: string, settings: Settings): ColumnMap;
+  /** The method's own settings (beyond the common `tails`), if any. */
+  readonly settings?: readonly SettingSpec[];
   /** Checks a raw column before fitting (e.g. whole numbers). */
   check?(values: Float64Array, where: string): void;
   /** Rebuilds a column from its saved params. */
@@ -47,12 +49,13 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
   let w1 = 0;
   let minSlope = Infinity;
   const tied: string[] = [];
+  const compacted: string[] = [];
   for (let k = 0; k < d; k++) {
     const where = `fit (${recipe.method})${d > 1 || ctx.columns ? `: ${columnName(ctx, k)}` : ''}`;
     const src = columnCdf(recipe, source, k, `${where}: source`, d === 1);
     const s = src.cdf;
     const t = columnCdf(recipe, target, k, `${where}: target`, false).cdf;
-    const c = recipe.build(s, t, where);
+    const c = recipe.build(s, t, where, settings);
     columns.push(src.sorted ? { ...c, fittedSource: mapFittedSource(c, src.raw, src.sorted, tails(settings)) } : c);
     const cost = transportCosts1d(s, t);
     w2.push(cost.w2Squared);
@@ -60,6 +63,7 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
     const slope = c.forward.minSlope();
     if (slope < minSlope) minSlope = slope;
     if (recipe.warnTies && s.tiedRows > 0) tied.push(`${s.tiedRows} of ${s.rows} in ${columnName(ctx, k)}`);
+    if (c.compaction) compacted.push(`${columnName(ctx, k)}: ${c.compaction.knots} of ${c.compaction.fullKnots} knots, largest difference ${c.compaction.largestError.toPrecision(3)} in mapped values (${c.compaction.largestErrorInverse.toPrecision(3)} inverting)`);
   }
   const effectiveSize = { source: kishEffectiveSize(source.weights, source.n), target: kishEffectiveSize(target.weights, target.n) };
   const warnings: Warning[] = sizeWarnings(header, effectiveSize);
@@ -75,6 +79,13 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
       code: 'ties',
       message: `Some source rows share a value with other rows (${tied.join('; ')}); rows with the same value all map to one value, so the mapped column has fewer distinct values than the target.`,
       action: 'If the values are whole-number scores, method ordinal spreads each score over its unit interval; otherwise this is expected.',
+    });
+  }
+  if (compacted.length > 0) {
+    warnings.push({
+      code: 'compacted',
+      message: `To keep the map small it keeps fewer knots than the full map, which would keep one per data value (${compacted.join('; ')}); the difference from the full map is largest there and never larger, over the fitted range and beyond it.`,
+      action: 'If that difference matters, set knots to a larger number (above the row count keeps every knot).',
     });
   }
   const total = w2.reduce((a, b) => a + b, 0);
@@ -177,15 +188,15 @@ function mapFittedSource(c: ColumnMap, raw: Float64Array, s: SortedWithOrder, t:
 
 /**
  * The MethodSpec of a one-column method from its recipe: each column matched on
- * its own, row weights taken, at least 2 rows per sample, one setting: `tails`
- * (TAILS_SETTING). The three 1-D methods differ only in their recipes.
+ * its own, row weights taken, at least 2 rows per sample, settings `tails`
+ * (TAILS_SETTING) and the recipe's own. The three 1-D methods differ only in their recipes.
  */
 export function oneColumnMethod(recipe: ColumnRecipe, summary: string): MethodSpec {
   return {
     name: recipe.method,
     summary,
     shape: 'one-column',
-    settings: [TAILS_SETTING],
+    settings: [TAILS_SETTING, ...(recipe.settings ?? [])],
     outside: outsideBothTails(recipe.method),
     minRows: () => 2,
     weights: true,
