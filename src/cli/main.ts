@@ -4,8 +4,8 @@ import type { TransportMap } from '../engine/map';
 import { parseMapJSON } from '../engine/map-json';
 import { getMethod, listMethods, restoreMap, settingSpecs, startFit } from '../engine/methods';
 import { parseSettingsText } from '../engine/settings';
-import { CellError, type CellIn } from '../functions/cells';
-import { readSample, readValues, writeValues, type ReadSample } from '../functions/coerce';
+import { CellError, type CellIn } from '../input/cells';
+import { readSample, readValues, writeValues, type ReadSample } from '../input/coerce';
 import { csvCell, formatCSV, parseCSV } from './csv';
 
 /**

@@ -3,7 +3,7 @@
  * calls.ts; no numeric logic lives here. */
 import * as calls from './calls';
 import { guard, toSheetError } from './excel-errors';
-import { setKeeper } from './store';
+import { setKeeper } from '../fits';
 import { workbookKeeper } from '../workbook/keeper';
 
 /**
@@ -67,7 +67,7 @@ export function gausscost(mean1: any[][], cov1: any[][], mean2: any[][], cov2: a
 export function fit(source: any[][], target: any[][], method?: any, settings?: any, source_weights?: any[][], target_weights?: any[][], invocation?: CustomFunctions.StreamingInvocation<string>): void {
   // Called without Excel's invocation (tests, the headless demo): the handle is returned, or a Promise of it.
   if (!invocation) return guard(() => calls.fit(source, target, method, settings, source_weights, target_weights)) as unknown as void;
-  calls.streamFit([source, target, method, settings, source_weights, target_weights], invocation, toSheetError);
+  calls.streamFitCell([source, target, method, settings, source_weights, target_weights], invocation, toSheetError);
 }
 
 /**

@@ -1,5 +1,5 @@
 import type { Diagnostics } from '../engine/map';
-import { recall } from '../functions/store';
+import { recall } from '../fits';
 import type { ComputedFormula } from './run-workbook';
 
 /** What the demo prints for one REMAP.FIT cell. */

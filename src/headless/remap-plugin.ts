@@ -9,7 +9,7 @@ import {
   type ImplementedFunctions,
 } from 'hyperformula';
 import * as calls from '../functions/calls';
-import type { CellIn } from '../functions/cells';
+import type { CellIn } from '../input/cells';
 import { guard, setErrorFactory } from '../functions/excel-errors';
 import { argFromHf, cellToHf, gridToHf, hfErrorFactory } from './hf-values';
 import { cellKey, currentRun } from './run-context';

@@ -1,6 +1,6 @@
 import type { Progress } from '../engine/map';
 import type { Sample } from '../engine/points';
-import { fitFromInputs, readFit } from '../functions/calls';
+import { fitFromInputs, readFit } from '../fits';
 import type { FitDone, FitRequest, PlotSample } from './fit-messages';
 import { PLOT_MAX_ROWS } from './fit-messages';
 
@@ -13,7 +13,7 @@ import { PLOT_MAX_ROWS } from './fit-messages';
  */
 export async function runFitJob(req: FitRequest, onProgress: (p: Progress) => void, signal?: { readonly aborted: boolean }): Promise<FitDone> {
   const t0 = Date.now();
-  const inputs = readFit('REMAP.FIT', req.source, req.target, req.method, req.settings || null, req.sourceWeights, req.targetWeights);
+  const inputs = readFit('REMAP.FIT', { source: req.source, target: req.target, method: req.method, settings: req.settings || null, sourceWeights: req.sourceWeights, targetWeights: req.targetWeights });
   const map = await fitFromInputs(inputs, { onProgress, signal });
   const diagnostics = map.diagnostics();
   const json = JSON.stringify(map.toJSON());

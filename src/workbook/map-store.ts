@@ -1,7 +1,7 @@
 import { RemapError } from '../engine/errors';
 import { Fingerprint } from '../engine/fingerprint';
 import { parseMapJSON } from '../engine/map-json';
-import type { Keeper, KeptInfo } from '../functions/store';
+import type { Keeper, KeptInfo } from '../fits';
 import type { ExcelRun } from './excel-run';
 import { escapeXmlText, jsonSafeForXml, unescapeXmlText, xmlElements } from './xml-text';
 

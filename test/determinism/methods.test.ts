@@ -11,7 +11,7 @@ import { fitMap, listMethods } from '../../src/engine/methods';
 import { points, sample } from '../../src/engine/points';
 import { Random } from '../../src/engine/stats/random';
 import * as F from '../../src/functions/functions';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { installCustomFunctionsStub } from '../helpers/custom-functions-stub';
 
 installCustomFunctionsStub();

@@ -1,6 +1,6 @@
 import * as ss from 'simple-statistics';
 import * as F from '../../src/functions/functions';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { installCustomFunctionsStub, StubSheetError } from '../helpers/custom-functions-stub';
 
 installCustomFunctionsStub();

@@ -2,7 +2,7 @@
 jest.mock('../../src/engine/gradient-net/method', () => ({ gradientNetMethod: require('../helpers/slow-method').slowMethod('gradient-net') }));
 import { MAX_CELL_TEXT, MAX_RESULT_BYTES } from '../../src/functions/calls';
 import * as F from '../../src/functions/functions';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll, watchFits } from '../../src/fits';
 import { installCustomFunctionsStub, StubSheetError } from '../helpers/custom-functions-stub';
 
 installCustomFunctionsStub();
@@ -57,7 +57,7 @@ describe('REMAP.FIT streams', () => {
   test('Excel cancelling the cell (inputs changed, cell cleared) aborts the fit and sets nothing more', async () => {
     const { inv, results, cancel } = invocation();
     let lastStep = 0;
-    const stopWatching = (await import('../../src/functions/calls')).watchFits((_h, p) => {
+    const stopWatching = watchFits((_h, p) => {
       lastStep = p.step;
     });
     F.fit(src, tgt, 'gradient-net', 'steps=401', undefined, undefined, inv);

@@ -11,7 +11,7 @@
 import fc from 'fast-check';
 import { listMethods } from '../../src/engine/methods';
 import * as F from '../../src/functions/functions';
-import { forgetAll, isHandle } from '../../src/functions/store';
+import { forgetAll, isHandle } from '../../src/fits';
 import { installCustomFunctionsStub } from '../helpers/custom-functions-stub';
 import { shape } from './arbitraries';
 import { cleanRange, deepFreeze, errorCell, junkCell, oddMethod, oddSettings, options, range, sameDeep, snapshot, weights } from './arbitraries';

@@ -11,10 +11,10 @@ import fc from 'fast-check';
 import { isRemapError } from '../../src/engine/errors';
 import { parseMapJSON } from '../../src/engine/map-json';
 import type { Mapped, TransportMap } from '../../src/engine/map';
-import { readValues, writeValues } from '../../src/functions/coerce';
+import { readValues, writeValues } from '../../src/input/coerce';
 import { fitMap, listMethods, restoreMap } from '../../src/engine/methods';
 import { sample, points } from '../../src/engine/points';
-import { reportTable } from '../../src/functions/report';
+import { reportTable } from '../../src/fits/report-table';
 import { options } from './arbitraries';
 
 const SMALL: Record<string, Record<string, unknown>> = { entropic: { max_iterations: 50 }, 'gradient-net': { steps: 2, hidden: 2, batch: 0, backend: 'cpu' } };

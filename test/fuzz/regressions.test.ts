@@ -8,10 +8,10 @@ import { column, sample } from '../../src/engine/points';
 import { hazenGrid } from '../../src/engine/quantile/hazen-grid';
 import { buildKnots } from '../../src/engine/quantile/knots';
 import { weightedCdfSorted } from '../../src/engine/stats/weighted-cdf';
-import { CellError } from '../../src/functions/cells';
-import { readValues, writeValues } from '../../src/functions/coerce';
+import { CellError } from '../../src/input/cells';
+import { readValues, writeValues } from '../../src/input/coerce';
 import * as F from '../../src/functions/functions';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { installCustomFunctionsStub, StubSheetError } from '../helpers/custom-functions-stub';
 import { runCli as cli } from '../helpers/run-cli';
 
@@ -63,7 +63,7 @@ describe('quantile/fit-columns.ts: a cost that overflows', () => {
   });
 });
 
-describe('functions/coerce.ts writeValues: a mapped value that is not finite', () => {
+describe('input/coerce.ts writeValues: a mapped value that is not finite', () => {
   test('tails=linear far outside the fitted range gives #NUM! in that cell (was Infinity in the cell)', () => {
     const col = (xs: number[]) => xs.map((x) => [x]);
     const out = F.values(col([1e300, 0]), col([0, 1e-300]), col([0, 1]), 'quantile', undefined, undefined, 'tails=linear') as unknown[][];

@@ -1,5 +1,5 @@
 import * as calls from '../../src/functions/calls';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { formatSummary, short, summariseFormulas } from '../../src/headless/fit-summary';
 
 afterEach(() => forgetAll());

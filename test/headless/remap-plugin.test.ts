@@ -1,6 +1,6 @@
 import { DetailedCellError, HyperFormula } from 'hyperformula';
 import * as calls from '../../src/functions/calls';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { REPORT_ROWS, registerRemapPlugin } from '../../src/headless/remap-plugin';
 
 registerRemapPlugin();

@@ -5,7 +5,7 @@ import { ValueType, Workbook } from 'exceljs';
 import { parseCSV } from '../../src/cli/csv';
 import { fitMap } from '../../src/engine/methods';
 import { sample, type Points } from '../../src/engine/points';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { runWorkbook, type RunResult } from '../../src/headless/run-workbook';
 import { rangeNumbers } from '../../src/headless/range-values';
 import { DEMO_ENTROPIC_ROWS, DEMO_GRADIENT_NET_SETTINGS, DEMO_WORKBOOKS, makeDemoWorkbooks } from '../../scripts/make-demo-workbooks';

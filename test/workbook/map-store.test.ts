@@ -1,6 +1,6 @@
 import * as F from '../../src/functions/functions';
 import type { TransportMap } from '../../src/engine/map';
-import { forgetAll, resolveMap, setKeeper } from '../../src/functions/store';
+import { forgetAll, resolveMap, setKeeper } from '../../src/fits';
 import type { ExcelRun } from '../../src/workbook/excel-run';
 import { CHUNK_NAMESPACE, INDEX_NAMESPACE, WorkbookMapStore } from '../../src/workbook/map-store';
 import { installCustomFunctionsStub } from '../helpers/custom-functions-stub';

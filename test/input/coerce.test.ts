@@ -1,5 +1,5 @@
-import { CellError } from '../../src/functions/cells';
-import { asRows, isOmitted, readNumbers, readSample, readSettings, readText, readValues, writeValues } from '../../src/functions/coerce';
+import { CellError } from '../../src/input/cells';
+import { asRows, isOmitted, readNumbers, readSample, readSettings, readText, readValues, writeValues } from '../../src/input/coerce';
 
 const fn = 'REMAP.TEST';
 const deepFreeze = (rows: unknown[][]): unknown[][] => Object.freeze(rows.map((r) => Object.freeze(r))) as unknown[][];
