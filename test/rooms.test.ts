@@ -11,12 +11,13 @@ const ALLOWED: Record<string, readonly string[]> = {
   engine: [],
   input: ['engine'],
   fits: ['engine', 'input'],
-  plots: ['engine'],
-  workbook: ['engine', 'input', 'fits'],
+  common: [],
+  plots: ['engine', 'common'],
+  workbook: ['engine', 'input', 'fits', 'common'],
   functions: ['engine', 'input', 'fits', 'workbook'],
   cli: ['engine', 'input', 'fits'],
-  taskpane: ['engine', 'input', 'fits', 'workbook', 'plots'],
-  headless: ['engine', 'input', 'fits', 'functions', 'plots'],
+  taskpane: ['engine', 'input', 'fits', 'workbook', 'plots', 'common'],
+  headless: ['engine', 'input', 'fits', 'functions', 'plots', 'common'],
   help: [],
 };
 

@@ -1,4 +1,4 @@
-import { escapeXml } from './escape-xml';
+import { escapeXml } from '../common/xml-text';
 import { formatTick, niceTicks, type Ticks } from './nice-ticks';
 import { GRID, INK } from './palette';
 

@@ -1,4 +1,4 @@
-import { escapeXml } from './escape-xml';
+import { escapeXml } from '../common/xml-text';
 import { makeFrame, px, type PlotOptions } from './frame';
 import { seriesColour } from './palette';
 import { extentOf, sortSeries, type Series } from './series';
@@ -28,7 +28,7 @@ export function histogramPlot(series: readonly Series[], opts: HistogramOptions 
   const sorted = series.map(sortSeries);
   const [lo, hi] = extentOf(sorted);
   const nonEmpty = sorted.filter((s) => s.sorted.length > 0);
-  const smallest = nonEmpty.length ? Math.min(...nonEmpty.map((s) => s.sorted.length)) : 1;
+  const smallest = nonEmpty.length ? Math.min(...nonEmpty.map((s) => s.rows)) : 1;
   const bins = Math.max(2, Math.min(200, Math.round(opts.bins ?? Math.max(8, Math.min(40, Math.ceil(Math.sqrt(smallest)))))));
   const given = opts.range && Number.isFinite(opts.range[0]) && Number.isFinite(opts.range[1]) && opts.range[1] > opts.range[0] ? opts.range : null;
   const a = given ? given[0] : Number.isFinite(lo) ? lo : 0;

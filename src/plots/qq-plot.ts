@@ -1,4 +1,4 @@
-import { escapeXml } from './escape-xml';
+import { escapeXml } from '../common/xml-text';
 import { makeFrame, px, type PlotOptions } from './frame';
 import { INK, seriesColour } from './palette';
 import { extentOf, quantileOf, sortSeries, type Series } from './series';
@@ -29,7 +29,7 @@ export function qqPlot(reference: Series, series: readonly Series[], opts: QQOpt
   const others = series.map(sortSeries);
   const all = [ref, ...others];
   const [lo, hi] = extentOf(all);
-  const maxN = Math.max(0, ...others.map((s) => Math.min(s.sorted.length, ref.sorted.length)));
+  const maxN = Math.max(0, ...others.map((s) => Math.min(s.rows, ref.rows)));
   const m = Math.max(2, Math.min(1000, Math.round(opts.points ?? Math.min(200, Math.max(2, maxN)))));
   const legend = [
     ...others.map((s, i) => ({ name: s.name, colour: seriesColour(i + 1), mark: 'point' as const })),

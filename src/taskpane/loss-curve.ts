@@ -1,4 +1,4 @@
-import { escapeXml } from '../plots';
+import { escapeXml } from '../common/xml-text';
 
 /**
  * A small line of a fit's loss against its step, drawn as SVG text for the

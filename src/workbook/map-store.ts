@@ -3,7 +3,8 @@ import { Fingerprint } from '../engine/fingerprint';
 import { parseMapJSON } from '../engine/map-json';
 import type { Keeper, KeptInfo } from '../fits';
 import type { ExcelRun } from './excel-run';
-import { escapeXmlText, jsonSafeForXml, unescapeXmlText, xmlElements } from './xml-text';
+import { SerialQueue } from '../common/serial-queue';
+import { escapeXml, jsonSafeForXml, unescapeXmlText, xmlElements } from '../common/xml-text';
 
 /**
  * Fitted maps kept inside the workbook file, so that after closing and
@@ -77,7 +78,7 @@ export class WorkbookMapStore implements Keeper {
   private readonly run: ExcelRun;
   private readonly chunkChars: number;
   private readonly now: () => Date;
-  private queue: Promise<unknown> = Promise.resolve();
+  private readonly queue = new SerialQueue();
 
   /**
    * @param run Excel.run or a test's fake of it.
@@ -97,12 +98,7 @@ export class WorkbookMapStore implements Keeper {
 
   /** Runs `job` after every store operation started before it (one writer at a time in this runtime). */
   private serial<T>(job: () => Promise<T>): Promise<T> {
-    const r = this.queue.then(job, job);
-    this.queue = r.then(
-      () => undefined,
-      () => undefined,
-    );
-    return r;
+    return this.queue.run(job);
   }
 
   /**
@@ -170,7 +166,7 @@ export class WorkbookMapStore implements Keeper {
       if (pieces.length === 0) pieces.push('');
       const ids: string[] = [];
       for (let i = 0; i < pieces.length; i++) {
-        const xml = `<chunk xmlns="${CHUNK_NAMESPACE}" handle="${escapeXmlText(handle)}" index="${i}" of="${pieces.length}">${escapeXmlText(pieces[i])}</chunk>`;
+        const xml = `<chunk xmlns="${CHUNK_NAMESPACE}" handle="${escapeXml(handle)}" index="${i}" of="${pieces.length}">${escapeXml(pieces[i])}</chunk>`;
         ids.push(
           await this.run(async (ctx) => {
             const part = ctx.workbook.customXmlParts.add(xml);
@@ -235,9 +231,9 @@ export class WorkbookMapStore implements Keeper {
   private async writeIndex(maps: Map<string, KeptMap>, indexIds: readonly string[]): Promise<void> {
     const body = [...maps.values()]
       .map((m) => {
-        const a = (k: string, v: string | number) => ` ${k}="${escapeXmlText(String(v))}"`;
+        const a = (k: string, v: string | number) => ` ${k}="${escapeXml(String(v))}"`;
         const attrs = a('handle', m.handle) + a('method', m.method) + a('rows', m.rows) + a('target-rows', m.targetRows) + a('cols', m.cols) + a('cost', m.cost) + a('saved', m.saved) + a('chars', m.chars) + a('check', m.check) + a('cell', m.cell);
-        return `<map${attrs}>${m.parts.map((id) => `<part id="${escapeXmlText(id)}"/>`).join('')}</map>`;
+        return `<map${attrs}>${m.parts.map((id) => `<part id="${escapeXml(id)}"/>`).join('')}</map>`;
       })
       .join('');
     const xml = `<maps xmlns="${INDEX_NAMESPACE}">${body}</maps>`;
