@@ -4,7 +4,7 @@ import { startFit } from '../engine/methods';
 import type { Sample } from '../engine/points';
 import type { MaybePromise } from './maybe-promise';
 import type { FitInputs } from './read-fit';
-import { recallOrFit } from './store';
+import { recall, recallOrFit, running } from './store';
 import { budgetError } from './time-budget';
 import { tellWatchers } from './watchers';
 
@@ -34,10 +34,14 @@ export function setFitter(f: Fitter | null): void {
  * signal when the caller's signal aborts or, for methods without their own
  * time_budget, when the budget runs out; that case throws a RemapError saying
  * what to do. Every progress report also goes to the session's fit watchers.
+ * A caller that joined a fit another caller started (same handle) and saw it
+ * cancelled there starts it again itself, once, so cancelling one cell never
+ * leaves another cell with an error it did not ask for.
  * Cost: that of the fit, or O(1) when the handle is known.
  */
-export function fitFromInputs(inputs: FitInputs, ctx: FitRun = {}): MaybePromise<TransportMap> {
+export function fitFromInputs(inputs: FitInputs, ctx: FitRun = {}, retries = 1): MaybePromise<TransportMap> {
   const outer = ctx.signal;
+  const joined = recall(inputs.handle) === undefined && running(inputs.handle) !== undefined;
   const deadline = Number.isFinite(inputs.budgetSeconds) ? Date.now() + inputs.budgetSeconds * 1000 : Infinity;
   let overBudget = false;
   // A getter: the engine reads `aborted` as it iterates, so a synchronous fit is stopped too.
@@ -74,5 +78,9 @@ export function fitFromInputs(inputs: FitInputs, ctx: FitRun = {}): MaybePromise
   } catch (e) {
     return overrun(e);
   }
-  return r instanceof Promise ? r.catch(overrun) : r;
+  if (!(r instanceof Promise)) return r;
+  return r.catch((e: unknown) => {
+    const cancelledElsewhere = joined && retries > 0 && !outer?.aborted && !overBudget && e instanceof RemapError && e.kind === 'cancelled';
+    return cancelledElsewhere ? fitFromInputs(inputs, ctx, retries - 1) : overrun(e);
+  });
 }

@@ -1,4 +1,3 @@
-import { RemapError } from '../engine/errors';
 import type { Progress, TransportMap } from '../engine/map';
 import { fitFromInputs } from './fit-service';
 import { PROGRESS_PREFIX } from './handles';
@@ -27,7 +26,7 @@ export const STREAM_EVERY_MS = 1000;
  * fitted) gives the handle at once. The host's cancel (inputs changed, cell
  * cleared) aborts the fit through its signal. Errors go to the cell through
  * `toError` (the door's error maker). A fit shared with another cell that was
- * cancelled there is started again here, once.
+ * cancelled there is started again here, once (fitFromInputs does it).
  * Cost: that of the fit, plus O(1) per progress report.
  */
 export function streamFit(read: () => FitInputs, sink: StreamSink, toError: (e: unknown) => unknown): void {
@@ -49,38 +48,32 @@ export function streamFit(read: () => FitInputs, sink: StreamSink, toError: (e: 
     last = now;
     sink.setResult(progressText(inputs.method, p));
   };
-  const attempt = (tries: number): void => {
-    const joined = recall(inputs.handle) === undefined && running(inputs.handle) !== undefined;
-    let stop: (() => void) | null = null;
-    if (joined) stop = watchFits((h, p) => (h === inputs.handle ? show(p) : undefined));
-    let r: MaybePromise<TransportMap>;
-    try {
-      r = fitFromInputs(inputs, { signal: abort, onProgress: show, cell: sink.address });
-    } catch (e) {
+  // Joined to a fit another cell started: show its progress here too.
+  const joined = recall(inputs.handle) === undefined && running(inputs.handle) !== undefined;
+  const stop = joined ? watchFits((h, p) => (h === inputs.handle ? show(p) : undefined)) : null;
+  let r: MaybePromise<TransportMap>;
+  try {
+    r = fitFromInputs(inputs, { signal: abort, onProgress: show, cell: sink.address });
+  } catch (e) {
+    stop?.();
+    if (!abort.aborted) sink.setResult(toError(e));
+    return;
+  }
+  if (!(r instanceof Promise)) {
+    sink.setResult(inputs.handle);
+    return;
+  }
+  sink.setResult(`${PROGRESS_PREFIX}${inputs.method}: starting`);
+  r.then(
+    () => {
+      stop?.();
+      if (!abort.aborted) sink.setResult(inputs.handle);
+    },
+    (e) => {
       stop?.();
       if (!abort.aborted) sink.setResult(toError(e));
-      return;
-    }
-    if (!(r instanceof Promise)) {
-      sink.setResult(inputs.handle);
-      return;
-    }
-    sink.setResult(`${PROGRESS_PREFIX}${inputs.method}: starting`);
-    r.then(
-      () => {
-        stop?.();
-        if (!abort.aborted) sink.setResult(inputs.handle);
-      },
-      (e) => {
-        stop?.();
-        if (abort.aborted) return;
-        // Another cell's fit of the same handle was cancelled there: fit here instead.
-        if (joined && tries > 0 && e instanceof RemapError && e.kind === 'cancelled') attempt(tries - 1);
-        else sink.setResult(toError(e));
-      },
-    );
-  };
-  attempt(1);
+    },
+  );
 }
 
 /**

@@ -21,6 +21,9 @@ import {
 } from '../fits';
 
 /**
+ * One argument order for every function that fits: (values?, source, target,
+ * [method], [settings], [source_weights], [target_weights]).
+ *
  * What each worksheet function does, without Office: read cells through the
  * input room, fit or find the map through the fit service, shape the result as
  * cells within Excel's limits. functions.ts wraps each in error handling and
@@ -29,17 +32,34 @@ import {
  */
 
 /** REMAP.VALUES: values mapped from the source's distribution onto the target's. */
-export function values(vals: CellIn, source: CellIn, target: CellIn, method?: CellIn, sourceWeights?: CellIn, targetWeights?: CellIn, settings?: CellIn): MaybePromise<Grid> {
+export function values(
+  vals: CellIn,
+  source: CellIn,
+  target: CellIn,
+  method?: CellIn,
+  settings?: CellIn,
+  sourceWeights?: CellIn,
+  targetWeights?: CellIn,
+  ctx: FitRun = {},
+): MaybePromise<Grid> {
   const fn = 'REMAP.VALUES';
   const inputs = readFit(fn, { source, target, method, settings, sourceWeights, targetWeights });
   const { points, layout } = readValues(vals, inputs.source.sample.d, fn);
-  return then(fitFromInputs(inputs), (map) => checkPayload(writeValues(map.apply(points), layout), fn));
+  return then(fitFromInputs(inputs, ctx), (map) => checkPayload(writeValues(map.apply(points), layout), fn));
 }
 
 /** REMAP.COST: the squared 2-Wasserstein estimate between source and target by the chosen method. */
-export function cost(source: CellIn, target: CellIn, method?: CellIn, sourceWeights?: CellIn, targetWeights?: CellIn, settings?: CellIn): MaybePromise<number> {
+export function cost(
+  source: CellIn,
+  target: CellIn,
+  method?: CellIn,
+  settings?: CellIn,
+  sourceWeights?: CellIn,
+  targetWeights?: CellIn,
+  ctx: FitRun = {},
+): MaybePromise<number> {
   const inputs = readFit('REMAP.COST', { source, target, method, settings, sourceWeights, targetWeights });
-  return then(fitFromInputs(inputs), (map) => map.cost().w2Squared);
+  return then(fitFromInputs(inputs, ctx), (map) => map.cost().w2Squared);
 }
 
 /** REMAP.GAUSSCOST: the closed-form squared W2 between two Gaussians given by mean and covariance. */
@@ -53,7 +73,15 @@ export function gaussCost(mean1: CellIn, cov1: CellIn, mean2: CellIn, cov2: Cell
 }
 
 /** REMAP.FIT: fits a map and returns its handle. */
-export function fit(source: CellIn, target: CellIn, method?: CellIn, settings?: CellIn, sourceWeights?: CellIn, targetWeights?: CellIn, ctx: FitRun = {}): MaybePromise<string> {
+export function fit(
+  source: CellIn,
+  target: CellIn,
+  method?: CellIn,
+  settings?: CellIn,
+  sourceWeights?: CellIn,
+  targetWeights?: CellIn,
+  ctx: FitRun = {},
+): MaybePromise<string> {
   const inputs = readFit('REMAP.FIT', { source, target, method, settings, sourceWeights, targetWeights });
   return then(fitFromInputs(inputs, ctx), () => inputs.handle);
 }
@@ -153,12 +181,12 @@ export function checkPayload(grid: Grid, fn: string): Grid {
  * target range, counting a header row (output "index", ready for INDEX()).
  * Rows the coercion skipped stay blank; a header row is echoed.
  */
-export function pairs(source: CellIn, target: CellIn, output?: CellIn): MaybePromise<Grid> {
+export function pairs(source: CellIn, target: CellIn, output?: CellIn, ctx: FitRun = {}): MaybePromise<Grid> {
   const fn = 'REMAP.PAIRS';
   const kind = readText(output, 'output', fn, 'values');
   if (kind !== 'values' && kind !== 'index') throw new RemapError(`${fn}: output must be "values" or "index", not "${kind}".`);
   const inputs = readFit(fn, { source, target, method: 'pairs' });
-  return then(fitFromInputs(inputs), (map) => {
+  return then(fitFromInputs(inputs, ctx), (map) => {
     const match = (map as unknown as { pairs(): Int32Array }).pairs();
     const s = inputs.source;
     const t = inputs.target;

@@ -65,14 +65,14 @@ describe.each(cases)('method %s is deterministic', (method) => {
     const engine = await fitMap(method, sample(src), sample(tgt), settings);
     const want = engine.apply(points(vals)).data;
     engine.dispose();
-    const cells1 = (await F.values(vals, src, tgt, method, undefined, undefined, settingsText(method) || undefined)) as number[][];
+    const cells1 = (await F.values(vals, src, tgt, method, settingsText(method) || undefined)) as number[][];
     forgetAll();
-    const cells2 = (await F.values(vals, src, tgt, method, undefined, undefined, settingsText(method) || undefined)) as number[][];
+    const cells2 = (await F.values(vals, src, tgt, method, settingsText(method) || undefined)) as number[][];
     expect(sameBits(cells1.flat(), want)).toBe(true);
     expect(sameBits(cells2.flat(), want)).toBe(true);
-    const c1 = (await F.cost(src, tgt, method, undefined, undefined, settingsText(method) || undefined)) as number;
+    const c1 = (await F.cost(src, tgt, method, settingsText(method) || undefined)) as number;
     forgetAll();
-    const c2 = (await F.cost(src, tgt, method, undefined, undefined, settingsText(method) || undefined)) as number;
+    const c2 = (await F.cost(src, tgt, method, settingsText(method) || undefined)) as number;
     expect(Object.is(c1, c2)).toBe(true);
   });
 
@@ -85,11 +85,11 @@ describe.each(cases)('method %s is deterministic', (method) => {
     const applied = await cli(['apply', '--model', 'm.json', '--input', 'x.csv'], files);
     expect(applied.code).toBe(0);
     const fromCli = parseCSV(applied.out).slice(1).flat().map(Number);
-    const cells = (await F.values(vals, src, tgt, method, undefined, undefined, st || undefined)) as number[][];
+    const cells = (await F.values(vals, src, tgt, method, st || undefined)) as number[][];
     expect(sameBits(fromCli, cells.flat())).toBe(true);
     const cost = await cli(['cost', '--source', 's.csv', '--target', 't.csv', '--method', method, ...(st ? ['--settings', st] : [])], files);
     expect(cost.code).toBe(0);
-    const cellCost = (await F.cost(src, tgt, method, undefined, undefined, st || undefined)) as number;
+    const cellCost = (await F.cost(src, tgt, method, st || undefined)) as number;
     expect(Object.is(JSON.parse(cost.out).w2_squared, cellCost)).toBe(true);
   });
 });

@@ -47,7 +47,7 @@ describe('REMAP.VALUES', () => {
 
   test('weights: a weight of 2 counts as the row twice (step mode)', () => {
     // Source: frequency weights (common practice)
-    const a = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 5, 7, 9]), 'step', col([1, 1, 1]), col([2, 1, 1, 0]));
+    const a = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 5, 7, 9]), 'step', undefined, col([1, 1, 1]), col([2, 1, 1, 0]));
     const b = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 1, 5, 7]), 'step');
     expect(a).toEqual(b);
   });
@@ -58,19 +58,19 @@ describe('REMAP.VALUES', () => {
     expect(e1.message).toMatch(/source has 2 columns and the target 1/);
     const e2 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'wibble'));
     expect(e2.message).toMatch(/Unknown method "wibble"; choose one of quantile, step, ordinal, linear/);
-    const e3 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', col([1, -1, 1])));
+    const e3 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', undefined, col([1, -1, 1])));
     expect(e3.message).toMatch(/negative/);
-    const e4 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', col([0, 0, 0])));
+    const e4 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', undefined, col([0, 0, 0])));
     expect(e4.message).toMatch(/all source weights are zero/);
     const e5 = sheetError(() => F.values(col([1]), col([1]), col([1, 2, 3])));
     expect(e5.message).toMatch(/at least 2/);
-    const e6 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', undefined, undefined, 'colour=red'));
+    const e6 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', 'colour=red'));
     expect(e6.message).toMatch(/Unknown setting "colour" for method quantile. Known settings: tails/);
   });
 
   test('tails=linear continues the end slope beyond the source range; the default clamps', () => {
     const clamp = F.values(col([4]), col([1, 2, 3]), col([10, 20, 30]));
-    const linear = F.values(col([4]), col([1, 2, 3]), col([10, 20, 30]), 'quantile', undefined, undefined, 'tails=linear');
+    const linear = F.values(col([4]), col([1, 2, 3]), col([10, 20, 30]), 'quantile', 'tails=linear');
     expect(clamp).toEqual([[30]]);
     expect(linear[0][0]).toBeCloseTo(40, 12);
   });

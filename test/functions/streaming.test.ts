@@ -153,3 +153,53 @@ describe('results within Excel limits', () => {
     for (let i = 0; i < probe.length; i++) for (let k = 0; k < 2; k++) expect(Object.is(again[i][k], direct[i][k])).toBe(true);
   });
 });
+
+/** A fake CancelableInvocation: Excel sets nothing on it but calls onCanceled. */
+function cancelable() {
+  const inv = { onCanceled: undefined as undefined | (() => void) };
+  return { inv: inv as unknown as CustomFunctions.CancelableInvocation, cancel: () => inv.onCanceled?.() };
+}
+
+describe('REMAP.VALUES, REMAP.COST and REMAP.PAIRS are cancelable', () => {
+  test.each(['values', 'cost'] as const)('Excel cancelling a REMAP.%s cell stops its background fit', async (which) => {
+    const { inv, cancel } = cancelable();
+    let lastStep = 0;
+    const stopWatching = watchFits((_h, p) => {
+      lastStep = p.step;
+    });
+    const run =
+      which === 'values'
+        ? (F.values(col([2, 3]), src, tgt, 'gradient-net', 'steps=402', undefined, undefined, inv) as unknown as Promise<unknown>)
+        : (F.cost(src, tgt, 'gradient-net', 'steps=402', undefined, undefined, inv) as unknown as Promise<unknown>);
+    await until(() => lastStep > 0);
+    cancel();
+    const stepAtCancel = lastStep;
+    // Source: design choice (a cancelled call ends as #N/A; Excel discards it)
+    await expect(run).rejects.toMatchObject({ code: '#N/A' });
+    await tick(100);
+    stopWatching();
+    expect(lastStep).toBeLessThanOrEqual(stepAtCancel + 1); // stopped at its next check of the signal, far before step 402
+  });
+
+  test('without an invocation (the headless demo, scripts) REMAP.VALUES still returns its values', async () => {
+    // Source: quantile matching (the stand-in fits it) sends the smallest and largest source values to the smallest and largest target values
+    const out = await (F.values(col([1, 8]), src, tgt, 'gradient-net', 'steps=3') as unknown as Promise<number[][]>);
+    expect(out).toEqual([[10], [50]]);
+  });
+
+  test('a cell that joined a fit another cell started, and saw it cancelled there, fits again itself', async () => {
+    const first = cancelable();
+    let lastStep = 0;
+    const stopWatching = watchFits((_h, p) => {
+      lastStep = p.step;
+    });
+    const a = F.values(col([1]), src, tgt, 'gradient-net', 'steps=20', undefined, undefined, first.inv) as unknown as Promise<unknown>;
+    const b = F.values(col([8]), src, tgt, 'gradient-net', 'steps=20') as unknown as Promise<number[][]>;
+    await until(() => lastStep > 0);
+    first.cancel();
+    await expect(a).rejects.toMatchObject({ code: '#N/A' });
+    // Source: the quantile map sends the largest source value to the largest target value (50)
+    await expect(b).resolves.toEqual([[50]]);
+    stopWatching();
+  });
+});

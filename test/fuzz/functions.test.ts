@@ -112,9 +112,9 @@ describe('worksheet functions under hostile input', () => {
         cases++;
         switch (r.which) {
           case 'values':
-            return judge(await frozenCall([r.values, r.source, r.target, r.method, r.sw, r.tw, r.settings], F.values as never), 'VALUES', 'grid');
+            return judge(await frozenCall([r.values, r.source, r.target, r.method, r.settings, r.sw, r.tw], F.values as never), 'VALUES', 'grid');
           case 'cost':
-            return judge(await frozenCall([r.source, r.target, r.method, r.sw, r.tw, r.settings], F.cost as never), 'COST', 'number');
+            return judge(await frozenCall([r.source, r.target, r.method, r.settings, r.sw, r.tw], F.cost as never), 'COST', 'number');
           case 'fit':
             return judge(await frozenCall([r.source, r.target, r.method, r.settings, r.sw, r.tw], F.fit as never), 'FIT', 'handle');
           default:
@@ -143,9 +143,9 @@ describe('worksheet functions under hostile input', () => {
         cases++;
         const vals = o.method === 'pairs' ? source : values;
         const tgt = o.method === 'pairs' ? source.map((row) => row.map((v) => 2 * v - 1)) : target;
-        judge(await frozenCall([source, tgt, o.method, undefined, undefined, o.tails], F.cost as never), 'COST', 'number');
+        judge(await frozenCall([source, tgt, o.method, o.tails], F.cost as never), 'COST', 'number');
         judge(await frozenCall([source, tgt, o.method, o.tails], F.fit as never), 'FIT', 'handle');
-        const r = await frozenCall([vals, source, tgt, o.method, undefined, undefined, o.tails], F.values as never);
+        const r = await frozenCall([vals, source, tgt, o.method, o.tails], F.values as never);
         judge(r, 'VALUES', 'grid');
         if (r.kind === 'value') {
           const g = r.value as unknown[][];
@@ -246,8 +246,8 @@ describe('worksheet functions under hostile input', () => {
         cases++;
         const settings = SLOW_SETTINGS[o.method];
         const w = Array.isArray(sw) && sw.length === source.length && o.junk > 0 ? sw : undefined;
-        if (o.which === 'values') judge(await frozenCall([values, source, target, o.method, w, undefined, settings], F.values as never), `VALUES (${o.method})`, 'grid');
-        else judge(await frozenCall([source, target, o.method, w, undefined, settings], F.cost as never), `COST (${o.method})`, 'number');
+        if (o.which === 'values') judge(await frozenCall([values, source, target, o.method, settings, w], F.values as never), `VALUES (${o.method})`, 'grid');
+        else judge(await frozenCall([source, target, o.method, settings, w], F.cost as never), `COST (${o.method})`, 'number');
       }),
       options(30, 20_000),
     );

@@ -39,7 +39,7 @@ describe('quantile/hazen-grid.ts and quantile/knots.ts: weights adding up beyond
 
   test('a quantile fit with such weights finishes with finite results (REMAP.VALUES)', () => {
     const col = (xs: number[]) => xs.map((x) => [x]);
-    const out = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', col([1e308, 5e-324, 1])) as unknown[][];
+    const out = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', undefined, col([1e308, 5e-324, 1])) as unknown[][];
     for (const [v] of out) expect(Number.isFinite(v as number) || v instanceof StubSheetError).toBe(true);
   });
 
@@ -66,7 +66,7 @@ describe('quantile/fit-columns.ts: a cost that overflows', () => {
 describe('input/coerce.ts writeValues: a mapped value that is not finite', () => {
   test('tails=linear far outside the fitted range gives #NUM! in that cell (was Infinity in the cell)', () => {
     const col = (xs: number[]) => xs.map((x) => [x]);
-    const out = F.values(col([1e300, 0]), col([0, 1e-300]), col([0, 1]), 'quantile', undefined, undefined, 'tails=linear') as unknown[][];
+    const out = F.values(col([1e300, 0]), col([0, 1e-300]), col([0, 1]), 'quantile', 'tails=linear') as unknown[][];
     expect(out[0][0]).toBeInstanceOf(StubSheetError);
     expect((out[0][0] as StubSheetError).code).toBe('#NUM!');
     expect((out[0][0] as StubSheetError).message).toMatch(/rescale/i);
@@ -128,7 +128,7 @@ describe('linear/fit.ts with linear/scale-check.ts: data too small or too large 
   });
 
   test('a ridge too large for the data is #NUM! saying to rescale, not an internal message', () => {
-    const e = sheetError(() => F.cost([[1, 1], [1, 2], [1, 3], [1, 4]], [[1, 2], [3, 4], [5, 6], [7, 9]], 'linear', undefined, undefined, 'ridge=1e308'));
+    const e = sheetError(() => F.cost([[1, 1], [1, 2], [1, 3], [1, 4]], [[1, 2], [3, 4], [5, 6], [7, 9]], 'linear', 'ridge=1e308'));
     expect(e.message).not.toMatch(/symmetricEigen/);
     expect(e.message).toMatch(/rescale/);
   });

@@ -49,7 +49,7 @@ describe('REMAP functions in HyperFormula', () => {
   });
   test('errors arrive as spreadsheet errors of the same type, with the message saying what to fix', () => {
     // Source: src/functions/excel-errors.ts mapping (value -> #VALUE!, na -> #N/A)
-    const hf = build([[null, '=REMAP.FIT(A1:A12, B1:B10, "nope")', '=REMAP.APPLY("remap:linear:5x1:0123", A1:A2)', '=REMAP.VALUES(A1:A2, A1:A12, B1:B10, "quantile", , , "colour=red")']]);
+    const hf = build([[null, '=REMAP.FIT(A1:A12, B1:B10, "nope")', '=REMAP.APPLY("remap:linear:5x1:0123", A1:A2)', '=REMAP.VALUES(A1:A2, A1:A12, B1:B10, "quantile", "colour=red")']]);
     const unknown = hf.getCellValue({ sheet: 0, row: 0, col: 3 }) as DetailedCellError;
     expect(unknown).toBeInstanceOf(DetailedCellError);
     expect(unknown.value).toBe('#VALUE!');
