@@ -5,6 +5,7 @@ import type { Sample } from '../engine/points';
 import type { MaybePromise } from './maybe-promise';
 import type { FitInputs } from './read-fit';
 import { recall, recallOrFit, running } from './store';
+import { noteCellMap } from './cell-maps';
 import { budgetError } from './time-budget';
 import { tellWatchers } from './watchers';
 
@@ -41,6 +42,7 @@ export function setFitter(f: Fitter | null): void {
  */
 export function fitFromInputs(inputs: FitInputs, ctx: FitRun = {}, retries = 1): MaybePromise<TransportMap> {
   const outer = ctx.signal;
+  if (ctx.cell) noteCellMap(ctx.cell, inputs.fn, inputs.handle);
   const joined = recall(inputs.handle) === undefined && running(inputs.handle) !== undefined;
   const deadline = Number.isFinite(inputs.budgetSeconds) ? Date.now() + inputs.budgetSeconds * 1000 : Infinity;
   let overBudget = false;

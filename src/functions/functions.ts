@@ -10,6 +10,7 @@ import { workbookKeeper } from '../workbook/keeper';
  * Maps values from the source's distribution onto the target's (monotone transport map), spilled in the shape of values. The map is an estimate: the Remap pane lists this formula with its map's warnings.
  * @customfunction VALUES
  * @cancelable
+ * @requiresAddress
  * @param values Cells to map: any shape for one column; one row per point for several columns.
  * @param source The source sample: one column, or several columns with one row per observation.
  * @param target The target sample, with the same columns as the source.
@@ -37,6 +38,7 @@ export function values(
  * Squared 2-Wasserstein cost of moving the source distribution onto the target (exact for one column). The Remap pane lists this formula with its map's warnings.
  * @customfunction COST
  * @cancelable
+ * @requiresAddress
  * @param source The source sample.
  * @param target The target sample, with the same columns.
  * @param [method] How to estimate it: "quantile" (exact, one column), "linear" (Gaussian closed form), "pairs", "entropic", "gradient-net".
@@ -145,6 +147,7 @@ export function save(model: any): string {
  * For each source row, the target row that the exact optimal one-to-one assignment matches it with (equal-size samples).
  * @customfunction PAIRS
  * @cancelable
+ * @requiresAddress
  * @param source The source sample: one row per observation.
  * @param target The target sample: the same number of rows and columns.
  * @param [output] "values" (default: the matched target row's values) or "index" (its row number within the target range).
@@ -170,14 +173,14 @@ export function load(json: any): string {
  * (inputs changed, cell cleared, workbook closing) the signal aborts and the
  * fit stops. Without an invocation (tests, the headless demo) nothing cancels.
  */
-function cancelledBy(invocation?: CustomFunctions.CancelableInvocation): { signal: { aborted: boolean } } {
+function cancelledBy(invocation?: CustomFunctions.CancelableInvocation): { signal: { aborted: boolean }; cell?: string } {
   const signal = { aborted: false };
-  if (invocation) {
-    invocation.onCanceled = () => {
-      signal.aborted = true;
-    };
-  }
-  return { signal };
+  if (!invocation) return { signal };
+  invocation.onCanceled = () => {
+    signal.aborted = true;
+  };
+  // The cell's address (with @requiresAddress) lets the pane list this formula with its map's warnings.
+  return invocation.address ? { signal, cell: invocation.address } : { signal };
 }
 
 // In Excel, fitted maps are also kept in the workbook (src/workbook), so they outlive the session.

@@ -6,6 +6,7 @@ import { writeFormula } from '../workbook/ranges';
 import { cellsOf, RANGE_INPUTS } from './data-section';
 import { $, messageOf, setStatus } from './dom';
 import { fitFormula } from './formula';
+import { refreshFormulas } from './formulas-section';
 import { refreshMaps } from './maps-section';
 import { budgetMsFor, effectiveMethod, formulaParts } from './method-section';
 import { pane } from './pane-state';
@@ -55,6 +56,7 @@ export async function fit(): Promise<void> {
     showResults(done.handle, done.diagnostics, done, done.reason);
     setStatus(`Fitted in ${durationText(done.elapsedMs)}; ${written} holds the formula and the map's handle.`);
     void refreshMaps();
+    void refreshFormulas();
   } catch (e) {
     pane.running = null;
     hideProgress();

@@ -5,7 +5,7 @@
  * formulas, and manage the maps kept in the workbook.
  *
  * One file per section (data-, method-, fit-, results-, apply-, maps-,
- * functions-section.ts); what they remember between events lives in
+ * formulas-, functions-section.ts); what they remember between events lives in
  * pane-state.ts. This file only wires the page's controls to them at start.
  *
  * How a fit runs: the pane reads the cells, runs the fit in a Web Worker
@@ -23,6 +23,7 @@ import { describeSample, pickInto } from './data-section';
 import { $ } from './dom';
 import { cancel, fit } from './fit-section';
 import { showFunctions } from './functions-section';
+import { refreshFormulas } from './formulas-section';
 import { refreshMaps } from './maps-section';
 import { updateFormula, updateMethodInfo } from './method-section';
 import { pane } from './pane-state';
@@ -61,8 +62,10 @@ function start(): void {
   $('insert-chart').addEventListener('click', () => void insertChart());
   $('apply').addEventListener('click', () => void writeApply());
   $('maps-refresh').addEventListener('click', () => void refreshMaps());
+  $('formulas-refresh').addEventListener('click', () => void refreshFormulas());
   updateMethodInfo();
   void refreshMaps();
+  void refreshFormulas();
   void showFunctions();
 }
 

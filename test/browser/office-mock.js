@@ -209,6 +209,14 @@
           x.cancel = () => inv.onCanceled && inv.onCanceled();
           while (args.length < meta.parameters.length) args.push(null);
           fn.apply(null, args.concat([inv]));
+        } else if (meta && meta.options && (meta.options.cancelable || meta.options.requiresAddress)) {
+          // A CancelableInvocation: the cell's address, and onCanceled, called when the formula is replaced.
+          const inv = { address, onCanceled: null };
+          x.cancel = () => inv.onCanceled && inv.onCanceled();
+          while (args.length < meta.parameters.length) args.push(null);
+          const v = fn.apply(null, args.concat([inv]));
+          if (v && typeof v.then === 'function') v.then(put, (e) => put(e));
+          else put(v);
         } else {
           const v = fn.apply(null, args);
           if (v && typeof v.then === 'function') v.then(put, (e) => put(e));
