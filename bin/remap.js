@@ -1,12 +1,24 @@
 #!/usr/bin/env node
 'use strict';
-// The `remap` command. Runs the TypeScript sources directly (tsx), so the
-// command and the add-in always run the same engine code.
-require('tsx/cjs/api').register();
+// The `remap` command. Runs the compiled command in dist-cli/ (`npm run build:cli`), so an install without
+// development dependencies works; in a development checkout without that build, it runs the TypeScript
+// sources directly through tsx, so the command and the add-in always run the same engine code.
 const fs = require('fs');
-const { main } = require('../src/cli/main.ts');
+const path = require('path');
 
-main(process.argv.slice(2), {
+function loadMain() {
+  const compiled = path.join(__dirname, '..', 'dist-cli', 'cli', 'main.js');
+  if (fs.existsSync(compiled)) return require(compiled).main;
+  try {
+    require('tsx/cjs/api').register();
+  } catch {
+    process.stderr.write('remap: the command is not built; run `npm run build:cli` (needs the development dependencies) and try again.\n');
+    process.exit(1);
+  }
+  return require('../src/cli/main.ts').main;
+}
+
+loadMain()(process.argv.slice(2), {
   stdout: (s) => process.stdout.write(s),
   stderr: (s) => process.stderr.write(s),
   readFile: (p) => fs.readFileSync(p, 'utf8'),

@@ -22,12 +22,13 @@ export interface FitRun extends Omit<FitContext, 'dropped' | 'columns'> {
  */
 export type Fitter = (method: string, source: Sample, target: Sample, settings: Record<string, unknown>, ctx: FitContext) => MaybePromise<TransportMap>;
 
-const inThisThread: Fitter = (method, source, target, settings, ctx) => startFit(method, source, target, settings, ctx);
-let fitter: Fitter = inThisThread;
+/** Fits in this thread, through the engine (the default Fitter). */
+export const fitInThisThread: Fitter = (method, source, target, settings, ctx) => startFit(method, source, target, settings, ctx);
+let fitter: Fitter = fitInThisThread;
 
 /** Sets where fits run (null: back to this thread). */
 export function setFitter(f: Fitter | null): void {
-  fitter = f ?? inThisThread;
+  fitter = f ?? fitInThisThread;
 }
 
 /**

@@ -3,7 +3,8 @@
  * calls.ts; no numeric logic lives here. */
 import * as calls from './calls';
 import { guard, toSheetError } from './excel-errors';
-import { setKeeper } from '../fits';
+import { fitInThisThread, setFitter, setKeeper, type Fitter } from '../fits';
+import { workerFitter } from '../fits/worker/worker-fitter';
 import { workbookKeeper } from '../workbook/keeper';
 
 /**
@@ -183,5 +184,26 @@ function cancelledBy(invocation?: CustomFunctions.CancelableInvocation): { signa
   return invocation.address ? { signal, cell: invocation.address } : { signal };
 }
 
-// In Excel, fitted maps are also kept in the workbook (src/workbook), so they outlive the session.
-if (typeof Excel !== 'undefined') setKeeper(workbookKeeper());
+let wasmPathSet: Promise<void> | null = null;
+
+/**
+ * Fits on the page (closed-form methods, or every method where workers fail):
+ * a trained fit first tells the wasm tensor backend where its binaries are
+ * served (wasm/, next to the page), as the fit worker does, so it does not fall
+ * back to the slower cpu backend.
+ */
+const onPage: Fitter = (method, source, target, settings, ctx) => {
+  if (method !== 'gradient-net' || typeof document === 'undefined') return fitInThisThread(method, source, target, settings, ctx);
+  wasmPathSet ??= import('../engine/gradient-net/backend').then(
+    (b) => b.configureBackend({ wasmPath: new URL('wasm/', document.baseURI).href }),
+    () => undefined,
+  );
+  return wasmPathSet.then(() => fitInThisThread(method, source, target, settings, ctx));
+};
+
+// In Excel, fitted maps are also kept in the workbook (src/workbook), so they outlive the session,
+// and fits of the slow methods run in a Web Worker, so the page (and the pane on it) never blocks.
+if (typeof Excel !== 'undefined') {
+  setKeeper(workbookKeeper());
+  setFitter(typeof Worker !== 'undefined' ? workerFitter({ fallback: onPage }) : onPage);
+}

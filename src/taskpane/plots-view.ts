@@ -1,6 +1,6 @@
 import { ecdfPlot, histogramPlot, qqPlot, quantileOf, scatterPlot, sortSeries, type Series } from '../plots';
 import type { ChartTable } from '../workbook/comparison-chart';
-import type { PlotSample } from './fit-messages';
+import type { PlotSample } from '../fits/worker/messages';
 
 /**
  * The pane's plots of a fit, as SVG text from src/plots: per column, the

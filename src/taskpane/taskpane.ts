@@ -18,9 +18,10 @@
 import { listMethods } from '../engine/methods';
 import { officeRun } from '../workbook/excel-run';
 import { workbookKeeper } from '../workbook/keeper';
+import { missingRequirements, officeRequirements } from '../workbook/requirements';
 import { writeApply } from './apply-section';
 import { describeSample, pickInto } from './data-section';
-import { $ } from './dom';
+import { $, setStatus } from './dom';
 import { cancel, fit } from './fit-section';
 import { showFunctions } from './functions-section';
 import { refreshFormulas } from './formulas-section';
@@ -67,6 +68,11 @@ function start(): void {
   void refreshMaps();
   void refreshFormulas();
   void showFunctions();
+  const missing = missingRequirements(officeRequirements());
+  if (missing.length > 0) {
+    const what = missing.map((m) => `${m.name} ${m.version} (${m.why})`).join('; ');
+    setStatus(`This version of Excel lacks what Remap needs: ${what}. Update Excel, or use Excel on the web.`, true);
+  }
 }
 
 // In Excel, wait for Office to be ready; opened in a plain browser (no office.js), the pane says so.

@@ -1,6 +1,6 @@
 import { sample } from '../../src/engine/points';
-import { thin } from '../../src/taskpane/fit-job';
-import { PLOT_MAX_ROWS } from '../../src/taskpane/fit-messages';
+import { thin } from '../../src/fits/worker/cells-job';
+import { PLOT_MAX_ROWS } from '../../src/fits/worker/messages';
 import { chartTable, distributionSvg, qqSvg, scatterSvg, type PlotData } from '../../src/taskpane/plots-view';
 
 const s = (rows: number[][]) => ({ n: rows.length, d: rows[0].length, data: Float64Array.from(rows.flat()), weights: null });

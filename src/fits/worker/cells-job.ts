@@ -1,8 +1,9 @@
-import type { Progress } from '../engine/map';
-import type { Sample } from '../engine/points';
-import { fitFromInputs, readFit } from '../fits';
-import type { FitDone, FitRequest, PlotSample } from './fit-messages';
-import { PLOT_MAX_ROWS } from './fit-messages';
+import type { Progress } from '../../engine/map';
+import type { Sample } from '../../engine/points';
+import { fitFromInputs } from '../fit-service';
+import { readFit } from '../read-fit';
+import type { FitDone, FitRequest, PlotSample } from './messages';
+import { PLOT_MAX_ROWS } from './messages';
 
 /**
  * One fit as the pane runs it, in the worker or (without workers) on the page:
