@@ -28,7 +28,8 @@ export async function runDemo(outDir: string = OUTPUT_DIR, log: (line: string) =
     const summary = summariseFormulas(r.formulas);
     errors += summary.errors.length;
     log('');
-    log(`${d.title}: ${d.file}  (${r.formulas.length} formulas, ${(r.elapsedMs / 1000).toFixed(1)} s${r.passes > 1 ? `, ${r.passes} passes: waited for background fits` : ''})`);
+    log(`${d.title}: ${d.file}  (${r.formulas.length} formulas, ${(r.elapsedMs / 1000).toFixed(1)} ` +
+      `s${r.passes > 1 ? `, ${r.passes} passes: waited for background fits` : ''})`);
     for (const line of formatSummary(summary)) log(line);
     const plots: string[] = [];
     for (const spec of d.plots) {
@@ -38,7 +39,9 @@ export async function runDemo(outDir: string = OUTPUT_DIR, log: (line: string) =
     log(`  wrote ${path.relative(process.cwd(), out)} and plots ${plots.join(', ')}`);
   }
   log('');
-  log(`Done in ${((Date.now() - t0) / 1000).toFixed(1)} s; ${errors === 0 ? 'every formula calculated' : `${errors} formula${errors === 1 ? '' : 's'} gave errors (see above)`}. Open the .xlsx files in demo-output/ to see the formulas with their results; the .svg plots open in any browser.`);
+  log(`Done in ${((Date.now() - t0) / 1000).toFixed(1)} s; ` +
+    `${errors === 0 ? 'every formula calculated' : `${errors} formula${errors === 1 ? '' : 's'} gave errors (see above)`}. Open the .xlsx files ` +
+      `in demo-output/ to see the formulas with their results; the .svg plots open in any browser.`);
   return errors;
 }
 

@@ -93,12 +93,18 @@ function surveyWaves(): Workbook {
   const e2 = n2 + 1;
   const wb = newWorkbook();
   about(wb, 'Harbourside Household Panel: putting wave 2 on wave 1\'s scale (invented data)', [
-    'The Harbourside Household Panel is an invented survey. Wave 2 used a new questionnaire: income was asked net of a levy, so it came out lower and more compressed, and the 0-10 satisfaction question got friendlier wording, so scores drifted up. The households are different people in each wave, so there are no pairs to match: only the two distributions.',
-    'Sheet Wave2, column F, holds each wave-2 income on wave 1\'s scale: the continuous quantile map, with both waves\' survey weights honoured. A household at wave 2\'s weighted 30th percentile gets wave 1\'s weighted 30th-percentile income:',
+    'The Harbourside Household Panel is an invented survey. Wave 2 used a new questionnaire: income was asked net of a levy, so it came out lower ' +
+      'and more compressed, and the 0-10 satisfaction question got friendlier wording, so scores drifted up. The households are different people ' +
+        'in each wave, so there are no pairs to match: only the two distributions.',
+    'Sheet Wave2, column F, holds each wave-2 income on wave 1\'s scale: the continuous quantile map, with both waves\' survey weights honoured. ' +
+      'A household at wave 2\'s weighted 30th percentile gets wave 1\'s weighted 30th-percentile income:',
     `=REMAP.VALUES(B2:B${e2}, B2:B${e2}, Wave1!B2:B${e1}, "quantile", , D2:D${e2}, Wave1!D2:D${e1})`,
-    'Column G does the same for the satisfaction score with the ordinal method (equipercentile equating of whole-number scores, Kolen & Brennan), again with the weights:',
+    'Column G does the same for the satisfaction score with the ordinal method (equipercentile equating of whole-number scores, Kolen & Brennan), ' +
+      'again with the weights:',
     `=REMAP.VALUES(C2:C${e2}, C2:C${e2}, Wave1!C2:C${e1}, "ordinal", , D2:D${e2}, Wave1!D2:D${e1})`,
-    'Sheet Check compares weighted means and medians before and after, gives REMAP.COST (how far wave 2 had to move, as a squared 2-Wasserstein distance), and fits the same two maps with REMAP.FIT so that REMAP.REPORT can list their diagnostics: rows used, cost, how close the mapped wave 2 came to wave 1 (energy distance, KS) and any warnings.',
+    'Sheet Check compares weighted means and medians before and after, gives REMAP.COST (how far wave 2 had to move, as a squared 2-Wasserstein ' +
+      'distance), and fits the same two maps with REMAP.FIT so that REMAP.REPORT can list their diagnostics: rows used, cost, how close the ' +
+        'mapped wave 2 came to wave 1 (energy distance, KS) and any warnings.',
     'Things to try: change a weight in Wave2!D and watch the harmonised incomes move; replace "quantile" with "step" to get only values that occur in wave 1.',
   ]);
   dataSheet(wb, 'Wave1', w1, [12, 12, 13, 10]);
@@ -159,7 +165,8 @@ function scenarioAlignment(): Workbook {
   const wb = newWorkbook();
   const fits: [string, string, string][] = [
     ['linear', `REMAP.FIT(Model!A2:C${e}, Reference!A2:C${e}, "linear")`, `REMAP.COST(Model!A2:C${e}, Reference!A2:C${e}, "linear")`],
-    ['entropic', `REMAP.FIT(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`, `REMAP.COST(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`],
+    ['entropic', `REMAP.FIT(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", ` +
+      `"seed=7")`, `REMAP.COST(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`],
     [
       'gradient-net',
       `REMAP.FIT(Model!A2:C${e}, Reference!A2:C${e}, "gradient-net", "${DEMO_GRADIENT_NET_SETTINGS}")`,
@@ -167,12 +174,19 @@ function scenarioAlignment(): Workbook {
     ],
   ];
   about(wb, 'Aligning a model\'s scenarios to a reference set (invented data)', [
-    `An in-house model produced ${n.toLocaleString('en-US')} invented scenarios of three risk factors (a rate shock in basis points, an equity return in percent, a credit spread change in basis points). A reference set of the same size has fatter tails, a skewed equity factor and stronger joint moves in stress. The aim: move each model scenario so that the set as a whole looks like the reference, jointly, not one column at a time, while keeping the order of scenarios (a monotone map).`,
+    `An in-house model produced ${n.toLocaleString('en-US')} invented scenarios of three risk factors (a rate shock in basis points, an equity ` +
+      `return in percent, a credit spread change in basis points). A reference set of the same size has fatter tails, a skewed equity factor and ` +
+        `stronger joint moves in stress. The aim: move each model scenario so that the set as a whole looks like the reference, jointly, not one ` +
+          `column at a time, while keeping the order of scenarios (a monotone map).`,
     'Sheet Fits fits three maps side by side with REMAP.FIT and gives each one\'s cost with REMAP.COST:',
     ...fits.map((f) => `=${f[1]}`),
-    `linear matches means and covariances (the Gaussian map, closed form). entropic follows the whole joint shape (Sinkhorn and the entropic map); its kernel grows with rows squared, so this demo fits it on the first ${DEMO_ENTROPIC_ROWS.toLocaleString('en-US')} scenarios of each set and then applies it to all ${n.toLocaleString('en-US')}. gradient-net trains a neural map that is monotone by construction; its settings here ("${DEMO_GRADIENT_NET_SETTINGS}") are kept modest so the demo runs in about a minute; more steps fit better.`,
+    `linear matches means and covariances (the Gaussian map, closed form). entropic follows the whole joint shape (Sinkhorn and the entropic ` +
+      `map); its kernel grows with rows squared, so this demo fits it on the first ${DEMO_ENTROPIC_ROWS.toLocaleString('en-US')} scenarios of ` +
+        `each set and then applies it to all ${n.toLocaleString('en-US')}. gradient-net trains a neural map that is monotone by construction; its ` +
+          `settings here ("${DEMO_GRADIENT_NET_SETTINGS}") are kept modest so the demo runs in about a minute; more steps fit better.`,
     'Sheet Aligned applies each map to every model scenario with REMAP.APPLY, e.g. =REMAP.APPLY(Fits!B2, Model!A2:C' + e + ').',
-    'Sheet Reports lists REMAP.REPORT for each map: the cost, the energy distance between the scenarios and the reference before and after (lower after is better), the largest KS statistic per column after, whether an iterative fit converged, and warnings.',
+    'Sheet Reports lists REMAP.REPORT for each map: the cost, the energy distance between the scenarios and the reference before and after (lower ' +
+      'after is better), the largest KS statistic per column after, whether an iterative fit converged, and warnings.',
   ]);
   dataSheet(wb, 'Model', model, [16, 18, 18]);
   dataSheet(wb, 'Reference', ref, [16, 18, 18]);
@@ -218,11 +232,17 @@ function whatIf(): Workbook {
   const nN = eN - 1;
   const wb = newWorkbook();
   about(wb, 'What if North\'s stores sold like South\'s? (invented data)', [
-    `Monthly sales of ${nN} invented stores in the North region and ${eS - 1} in the South. The South's distribution has a different shape (a long plateau of mid-sized stores). The question: what would each North store's sales be if the North had the South's distribution but every store kept its rank?`,
+    `Monthly sales of ${nN} invented stores in the North region and ${eS - 1} in the South. The South's distribution has a different shape (a ` +
+      `long plateau of mid-sized stores). The question: what would each North store's sales be if the North had the South's distribution but ` +
+        `every store kept its rank?`,
     'Sheet WhatIf fits the map once and keeps its handle in B1:',
     `=REMAP.FIT(North!B2:B${eN}, South!B2:B${eS})`,
-    'Sheet North, column C applies it to every store (=REMAP.APPLY(WhatIf!B1, B2:B' + eN + ')) and column D maps those values back with the inverse (=REMAP.INVERT(WhatIf!B1, C2:C' + eN + ')), which gives the original sales again; WhatIf!B4 checks that the round trip is exact.',
-    'WhatIf also answers one-off questions: what a North store selling 62,000 would sell in the South (=REMAP.APPLY(B1, 62000)), and what a South store selling 100,000 would be in the North (=REMAP.INVERT(B1, 100000)). The percentile table compares North, North re-shaped, and South; the middle and right columns agree up to interpolation.',
+    'Sheet North, column C applies it to every store (=REMAP.APPLY(WhatIf!B1, ' +
+      'B2:B' + eN + ')) and column D maps those values back with the inverse (=REMAP.INVERT(WhatIf!B1, ' +
+        'C2:C' + eN + ')), which gives the original sales again; WhatIf!B4 checks that the round trip is exact.',
+    'WhatIf also answers one-off questions: what a North store selling 62,000 would sell in the South (=REMAP.APPLY(B1, 62000)), and what a South ' +
+      'store selling 100,000 would be in the North (=REMAP.INVERT(B1, 100000)). The percentile table compares North, North re-shaped, and South; ' +
+        'the middle and right columns agree up to interpolation.',
     'REMAP.REPORT(B1) at the bottom lists the map\'s diagnostics. Try typing another value in B6 or B7.',
   ]);
   const wn = dataSheet(wb, 'North', north, [10, 16, 18, 18]);

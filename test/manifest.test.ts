@@ -95,7 +95,7 @@ function readPng(file: string): { width: number; height: number; rgba: Buffer } 
   const width = buf.readUInt32BE(16);
   const height = buf.readUInt32BE(20);
   const idat: Buffer[] = [];
-  for (let off = 8; off < buf.length; ) {
+  for (let off = 8; off < buf.length;) {
     const len = buf.readUInt32BE(off);
     const type = buf.subarray(off + 4, off + 8).toString('ascii');
     if (type === 'IDAT') idat.push(buf.subarray(off + 8, off + 8 + len));

@@ -52,13 +52,18 @@ function roomOf(file: string): string | null {
 describe('rooms import only downward', () => {
   test('the import reader finds static, dynamic, re-exported and required relative modules', () => {
     // Source: design choice (the forms of import the code base uses)
-    const text = "import a from '../engine/x';\nimport type { B } from \"./b\";\nexport { c } from '../fits';\nconst d = require('../input/cells');\nconst e = import('./lazy');\nimport 'x';";
+    const text =
+      "import a from '../engine/x';\nimport type { B } from \"./b\";\nexport { c } from '../fits';\nconst d = require('../input/cells');\nconst e " +
+      "= import('./lazy');\nimport 'x';";
     expect(relativeImports(text)).toEqual(['../engine/x', './b', '../fits', '../input/cells', './lazy']);
   });
 
   test('every folder under src/ is a known room', () => {
     // Source: design choice (a new room is declared above and in DEVELOPERS.md)
-    const rooms = fs.readdirSync(src, { withFileTypes: true }).filter((e) => e.isDirectory()).map((e) => e.name);
+    const rooms = fs
+      .readdirSync(src, { withFileTypes: true })
+      .filter((e) => e.isDirectory())
+      .map((e) => e.name);
     expect(rooms.filter((r) => !(r in ALLOWED))).toEqual([]);
   });
 

@@ -49,13 +49,16 @@ export function unescapeXmlText(s: string): string {
   const parts = s.split(/<!\[CDATA\[([\s\S]*?)\]\]>/);
   let out = '';
   for (let i = 0; i < parts.length; i++) {
-    out += i % 2 === 1 ? parts[i] : parts[i].replace(/&(#x[0-9a-fA-F]+|#[0-9]+|[a-z]+);/g, (m, body: string) => {
-      if (body[0] === '#') {
-        const code = body[1] === 'x' ? parseInt(body.slice(2), 16) : parseInt(body.slice(1), 10);
-        return code >= 0 && code <= 0x10ffff ? String.fromCodePoint(code) : m;
-      }
-      return NAMED[body] ?? m;
-    });
+    out +=
+      i % 2 === 1
+        ? parts[i]
+        : parts[i].replace(/&(#x[0-9a-fA-F]+|#[0-9]+|[a-z]+);/g, (m, body: string) => {
+            if (body[0] === '#') {
+              const code = body[1] === 'x' ? parseInt(body.slice(2), 16) : parseInt(body.slice(1), 10);
+              return code >= 0 && code <= 0x10ffff ? String.fromCodePoint(code) : m;
+            }
+            return NAMED[body] ?? m;
+          });
   }
   return out;
 }

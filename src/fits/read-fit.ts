@@ -44,7 +44,8 @@ export function readFit(fn: string, cells: FitCells): FitInputs {
   const t = readSample(cells.target, { name: 'target', fn, weights: cells.targetWeights, weightsName: 'target_weights' });
   if (s.sample.d !== t.sample.d) {
     throw new RemapError(
-      `${fn}: the source has ${s.sample.d} column${s.sample.d === 1 ? '' : 's'} and the target ${t.sample.d}; select the same columns, in the same order, for both.`,
+      `${fn}: the source has ${s.sample.d} column${s.sample.d === 1 ? '' : 's'} and the target ${t.sample.d}; select the same columns, in the ` +
+        `same order, for both.`,
     );
   }
   const raw = readSettings(cells.settings, fn);

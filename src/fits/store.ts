@@ -146,7 +146,10 @@ export function resolveMap(model: string, fn: string): TransportMap | Promise<Tr
   const running = inflight.get(text);
   if (running) return running;
   const missing = (): never => {
-    throw new RemapError(`${fn}: no map with handle ${text} is open; recalculate the REMAP.FIT cell that made it, or load its saved JSON with REMAP.LOAD.`, 'na');
+    throw new RemapError(
+      `${fn}: no map with handle ${text} is open; recalculate the REMAP.FIT cell that made it, or load its saved JSON with REMAP.LOAD.`,
+      'na',
+    );
   };
   const keeper = currentKeeper();
   if (!keeper) return missing();

@@ -132,12 +132,15 @@ export function save(model: CellIn): MaybePromise<string> {
     if (json.length <= MAX_CELL_TEXT) return json;
     const where = isHandle(text)
       ? currentKeeper()
-        ? `It is kept in this workbook under its handle ${text.trim()}, so REMAP.APPLY on the REMAP.FIT cell keeps working after the workbook is closed and reopened.`
+        ? `It is kept in this workbook under its handle ${text.trim()}, so REMAP.APPLY on the REMAP.FIT cell keeps working after the workbook is ` +
+          `closed and reopened.`
         : `It stays available under its handle ${text.trim()} while this session lasts.`
       : '';
     throw new RemapError(
-      `${fn}: the map's JSON is ${json.length.toLocaleString('en-US')} characters, more than the ${MAX_CELL_TEXT.toLocaleString('en-US')} an Excel cell can hold. ${where} ` +
-        'To export it as a file, use "Export JSON" in the Remap pane\'s list of maps, or fit it with the command line: remap fit --source S.csv --target T.csv --out model.json.',
+      `${fn}: the map's JSON is ${json.length.toLocaleString('en-US')} characters, more than the ${MAX_CELL_TEXT.toLocaleString('en-US')} an ` +
+        `Excel cell can hold. ${where} ` +
+        'To export it as a file, use "Export JSON" in the Remap pane\'s list of maps, or fit it with the command line: remap fit --source S.csv ' +
+        '--target T.csv --out model.json.',
     );
   });
 }
@@ -164,13 +167,15 @@ export function checkPayload(grid: Grid, fn: string): Grid {
   for (const row of grid) {
     size += 3;
     for (const v of row) {
-      size += 1 + (typeof v === 'number' ? String(v).length : typeof v === 'string' ? JSON.stringify(v).length : v instanceof CellError ? v.message.length + 40 : 5);
+      size +=
+        1 + (typeof v === 'number' ? String(v).length : typeof v === 'string' ? JSON.stringify(v).length : v instanceof CellError ? v.message.length + 40 : 5);
     }
   }
   if (size <= MAX_RESULT_BYTES) return grid;
   const fits = Math.max(1, Math.floor((rows * MAX_RESULT_BYTES) / size / 1000) * 1000 || Math.floor((rows * MAX_RESULT_BYTES) / size));
   throw new RemapError(
-    `${fn}: the result would be about ${(size / 1e6).toFixed(1)} MB (${rows.toLocaleString('en-US')} rows), more than the 5 MB Excel accepts from one function. ` +
+    `${fn}: the result would be about ${(size / 1e6).toFixed(1)} MB (${rows.toLocaleString('en-US')} rows), more than the 5 MB Excel accepts from ` +
+      `one function. ` +
       `Apply the map to fewer rows at a time: split the range into blocks of at most ${fits.toLocaleString('en-US')} rows, one formula each.`,
   );
 }
@@ -221,7 +226,10 @@ export function load(json: CellIn): string {
 function modelText(model: CellIn, fn: string): string {
   const v = Array.isArray(model) ? (Array.isArray(model[0]) ? model[0][0] : model[0]) : model;
   if (typeof v !== 'string' || v.trim() === '') {
-    throw new RemapError(`${fn}: the model must be the cell holding REMAP.FIT's result (or REMAP.SAVE's JSON text); got ${v === null || v === undefined || v === '' ? 'a blank' : String(v)}.`);
+    throw new RemapError(
+      `${fn}: the model must be the cell holding REMAP.FIT's result (or REMAP.SAVE's JSON text); got ` +
+        `${v === null || v === undefined || v === '' ? 'a blank' : String(v)}.`,
+    );
   }
   return v;
 }

@@ -8,7 +8,8 @@ import { workerFitter } from '../fits/worker/worker-fitter';
 import { workbookKeeper } from '../workbook/keeper';
 
 /**
- * Maps values from the source's distribution onto the target's (monotone transport map), spilled in the shape of values. The map is an estimate: the Remap pane lists this formula with its map's warnings.
+ * Maps values from the source's distribution onto the target's (monotone transport map), spilled in the shape of values. The map is an estimate: the
+ * Remap pane lists this formula with its map's warnings.
  * @customfunction VALUES
  * @cancelable
  * @requiresAddress
@@ -36,7 +37,8 @@ export function values(
 }
 
 /**
- * Squared 2-Wasserstein cost of moving the source distribution onto the target (exact for one column). The Remap pane lists this formula with its map's warnings.
+ * Squared 2-Wasserstein cost of moving the source distribution onto the target (exact for one column). The Remap pane lists this formula with its
+ * map's warnings.
  * @customfunction COST
  * @cancelable
  * @requiresAddress
@@ -75,7 +77,8 @@ export function gausscost(mean1: any[][], cov1: any[][], mean2: any[][], cov2: a
 }
 
 /**
- * Fits a monotone transport map from source to target and returns its handle, for REMAP.APPLY, REMAP.INVERT and REMAP.REPORT. While a trained method works the cell shows its progress. The Remap pane lists this formula with its map's warnings.
+ * Fits a monotone transport map from source to target and returns its handle, for REMAP.APPLY, REMAP.INVERT and REMAP.REPORT. While a trained method
+ * works the cell shows its progress. The Remap pane lists this formula with its map's warnings.
  * @customfunction FIT
  * @streaming
  * @requiresAddress
@@ -135,7 +138,8 @@ export function report(model: any): any[][] {
 }
 
 /**
- * A fitted map as JSON text, to keep in a cell, a file or send to a colleague; REMAP.LOAD restores it. Maps longer than a cell holds (32,767 characters) stay in the workbook under their handle.
+ * A fitted map as JSON text, to keep in a cell, a file or send to a colleague; REMAP.LOAD restores it. Maps longer than a cell holds (32,767
+ * characters) stay in the workbook under their handle.
  * @customfunction SAVE
  * @param model The cell holding REMAP.FIT's handle.
  * @returns The map's JSON text.

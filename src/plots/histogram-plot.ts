@@ -7,7 +7,8 @@ import { extentOf, sortSeries, type Series } from './series';
 export interface HistogramOptions extends PlotOptions {
   /** Number of bins, 2..200 (default: the square root of the smallest series' size, kept within 8..40). */
   readonly bins?: number;
-  /** The span the bins cover (default: the data's range); values outside go into the end bins. E.g. [-0.5, 10.5] with 11 bins centres bins on the scores 0..10. */
+  /** The span the bins cover (default: the data's range); values outside go into the end bins. E.g. [-0.5, 10.5] with 11 bins centres bins on the
+   * scores 0..10. */
   readonly range?: readonly [number, number];
 }
 
@@ -58,7 +59,10 @@ export function histogramPlot(series: readonly Series[], opts: HistogramOptions 
     for (let k = 0; k < bins; k++) parts.push(`V${px(f.y(d[k]))}H${px(f.x(a + (k + 1) * width))}`);
     parts.push(`V${px(f.y(0))}Z`);
     const c = seriesColour(i);
-    marks.push(`<path class="series" data-name="${name}" d="${parts.join('')}" fill="${c}" fill-opacity="0.22" stroke="${c}" stroke-width="1.8" stroke-linejoin="round"/>`);
+    marks.push(
+      `<path class="series" data-name="${name}" d="${parts.join('')}" fill="${c}" fill-opacity="0.22" stroke="${c}" stroke-width="1.8" ` +
+        `stroke-linejoin="round"/>`,
+    );
   });
   return f.head + marks.join('') + f.tail;
 }

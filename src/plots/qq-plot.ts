@@ -37,11 +37,19 @@ export function qqPlot(reference: Series, series: readonly Series[], opts: QQOpt
   ];
   const f = makeFrame({ xLabel: `${reference.name} quantiles`, yLabel: 'quantiles', ...opts }, [lo, hi], [lo, hi], legend);
   // share one range on both axes
-  const g = makeFrame({ xLabel: `${reference.name} quantiles`, yLabel: 'quantiles', ...opts }, [f.xTicks.lo, f.xTicks.hi], [f.xTicks.lo, f.xTicks.hi], legend, f.xTicks);
+  const g = makeFrame(
+    { xLabel: `${reference.name} quantiles`, yLabel: 'quantiles', ...opts },
+    [f.xTicks.lo, f.xTicks.hi],
+    [f.xTicks.lo, f.xTicks.hi],
+    legend,
+    f.xTicks,
+  );
   const marks: string[] = [];
   const a = g.xTicks.lo;
   const b = g.xTicks.hi;
-  marks.push(`<path class="diagonal" d="M${px(g.x(a))} ${px(g.y(a))}L${px(g.x(b))} ${px(g.y(b))}" stroke="${INK}" stroke-width="1" stroke-dasharray="4 3" fill="none"/>`);
+  marks.push(
+    `<path class="diagonal" d="M${px(g.x(a))} ${px(g.y(a))}L${px(g.x(b))} ${px(g.y(b))}" stroke="${INK}" stroke-width="1" stroke-dasharray="4 3" fill="none"/>`,
+  );
   const r = g.width < 420 ? 1.8 : 2.4;
   others.forEach((s, i) => {
     const c = seriesColour(i + 1);

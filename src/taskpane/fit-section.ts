@@ -60,7 +60,8 @@ export async function fit(): Promise<void> {
   } catch (e) {
     pane.running = null;
     hideProgress();
-    if (isRemapError(e) && e.kind === 'cancelled') setStatus('Fit cancelled. Nothing was written to the workbook; change the data or settings and press Fit again.');
+    if (isRemapError(e) && e.kind === 'cancelled')
+      setStatus('Fit cancelled. Nothing was written to the workbook; change the data or settings and press Fit again.');
     else setStatus(messageOf(e), true);
   } finally {
     fitButton.disabled = false;

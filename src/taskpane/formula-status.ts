@@ -44,17 +44,30 @@ export function remapFunctionOf(formula: string): string {
 export function formulaStatus(formula: string, diag: Diagnostics | undefined): FormulaStatus {
   const fn = remapFunctionOf(formula);
   if (fn === 'GAUSSCOST') {
-    return { fn, kind: 'other', lines: [{ title: 'Closed form', text: 'The cost between two Gaussians given by their means and covariances; no map is fitted to data.' }] };
+    return {
+      fn,
+      kind: 'other',
+      lines: [{ title: 'Closed form', text: 'The cost between two Gaussians given by their means and covariances; no map is fitted to data.' }],
+    };
   }
   if (USING.has(fn)) {
-    return { fn, kind: 'other', lines: [{ title: 'Uses another cell\u2019s map', text: 'Its warnings are listed with the REMAP.FIT (or REMAP.LOAD) cell it names.' }] };
+    return {
+      fn,
+      kind: 'other',
+      lines: [{ title: 'Uses another cell\u2019s map', text: 'Its warnings are listed with the REMAP.FIT (or REMAP.LOAD) cell it names.' }],
+    };
   }
   if (!FITTING.has(fn)) return { fn, kind: 'other', lines: [] };
   if (!diag) {
     return {
       fn,
       kind: 'unknown',
-      lines: [{ title: 'Not calculated in this session', text: 'Recalculate it (Formulas > Calculate Now, or press Fit again in the list of maps) to see its map\u2019s warnings here.' }],
+      lines: [
+        {
+          title: 'Not calculated in this session',
+          text: 'Recalculate it (Formulas > Calculate Now, or press Fit again in the list of maps) to see its map\u2019s warnings here.',
+        },
+      ],
     };
   }
   const warnings = warningsInWords(diag.warnings);

@@ -76,5 +76,10 @@ export function chartTable(data: PlotData, k: number, steps = 100): ChartTable {
     const p = i / steps;
     rows.push([p, ...sorted.map((x) => quantileOf(x, p))]);
   }
-  return { title: `${columnName(data, k)}: quantiles of source, mapped source and target`, header: ['share', 'source', 'mapped source', 'target'], rows, sheetName: 'Remap chart' };
+  return {
+    title: `${columnName(data, k)}: quantiles of source, mapped source and target`,
+    header: ['share', 'source', 'mapped source', 'target'],
+    rows,
+    sheetName: 'Remap chart',
+  };
 }

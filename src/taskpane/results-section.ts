@@ -43,7 +43,9 @@ export function showResults(handle: string, diag: Diagnostics, data: PlotData | 
   const d = data.source.d;
   const fill = (id: string, selected: number) => {
     const sel = $<HTMLSelectElement>(id);
-    sel.replaceChildren(...Array.from({ length: d }, (_, k) => Object.assign(document.createElement('option'), { value: String(k), textContent: columnName(data, k) })));
+    sel.replaceChildren(
+      ...Array.from({ length: d }, (_, k) => Object.assign(document.createElement('option'), { value: String(k), textContent: columnName(data, k) })),
+    );
     sel.value = String(Math.min(selected, d - 1));
   };
   fill('plot-column', 0);

@@ -38,18 +38,20 @@ export async function findRemapFormulas(run: ExcelRun, options: FormulaSearchOpt
   const cellsPerRead = options.cellsPerRead ?? 100_000;
   const maxCells = options.maxCellsPerSheet ?? 2_000_000;
   const maxFormulas = options.maxFormulas ?? 500;
-  const sheets = await run(async (ctx) => {
-    const all = ctx.workbook.worksheets;
+  const sheets = await run(async (context) => {
+    const all = context.workbook.worksheets;
     all.load('items/name');
-    await ctx.sync();
+    await context.sync();
     const shapes = all.items.map((s) => {
-      const used = ctx.workbook.worksheets.getItem(s.name).getUsedRangeOrNullObject();
+      const used = context.workbook.worksheets.getItem(s.name).getUsedRangeOrNullObject();
       used.load(['rowIndex', 'columnIndex', 'rowCount', 'columnCount']);
       return { name: s.name, used };
     });
-    await ctx.sync();
+    await context.sync();
     return shapes.map(({ name, used }) =>
-      used.isNullObject ? { name, row: 0, col: 0, rows: 0, cols: 0 } : { name, row: used.rowIndex, col: used.columnIndex, rows: used.rowCount, cols: used.columnCount },
+      used.isNullObject
+        ? { name, row: 0, col: 0, rows: 0, cols: 0 }
+        : { name, row: used.rowIndex, col: used.columnIndex, rows: used.rowCount, cols: used.columnCount },
     );
   });
   const formulas: FoundFormula[] = [];
@@ -63,14 +65,16 @@ export async function findRemapFormulas(run: ExcelRun, options: FormulaSearchOpt
     const block = Math.max(1, Math.floor(cellsPerRead / Math.max(1, s.cols)));
     for (let at = 0; at < s.rows && !truncated; at += block) {
       const n = Math.min(block, s.rows - at);
-      const found = await run(async (ctx) => {
-        const r = ctx.workbook.worksheets.getItem(s.name).getRangeByIndexes(s.row + at, s.col, n, s.cols);
-        r.load(['formulas', 'values']);
-        await ctx.sync();
+      const found = await run(async (context) => {
+        const r = context.workbook.worksheets.getItem(s.name).getRangeByIndexes(s.row + at, s.col, n, s.cols);
+        r.load('formulas, values');
+        await context.sync();
         const out: { r: number; c: number; formula: string; value: unknown }[] = [];
+        const values = r.values;
         r.formulas.forEach((row, i) =>
           row.forEach((f, j) => {
-            if (typeof f === 'string' && f.startsWith('=') && REMAP_CALL.test(f)) out.push({ r: s.row + at + i, c: s.col + j, formula: f, value: r.values[i][j] });
+            if (typeof f === 'string' && f.startsWith('=') && REMAP_CALL.test(f))
+              out.push({ r: s.row + at + i, c: s.col + j, formula: f, value: values[i][j] });
           }),
         );
         return out;

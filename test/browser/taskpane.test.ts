@@ -18,7 +18,15 @@ const ROOT = path.resolve(__dirname, '../..');
 const DIST = path.join(ROOT, 'dist');
 const SHOTS = path.join(ROOT, 'screenshots');
 const MOCK_SOURCE = fs.readFileSync(path.join(__dirname, 'office-mock.js'), 'utf8');
-const TYPES: Record<string, string> = { '.html': 'text/html', '.js': 'text/javascript', '.css': 'text/css', '.json': 'application/json', '.wasm': 'application/wasm', '.png': 'image/png', '.xml': 'application/xml' };
+const TYPES: Record<string, string> = {
+  '.html': 'text/html',
+  '.js': 'text/javascript',
+  '.css': 'text/css',
+  '.json': 'application/json',
+  '.wasm': 'application/wasm',
+  '.png': 'image/png',
+  '.xml': 'application/xml',
+};
 
 jest.setTimeout(60_000);
 
@@ -30,7 +38,7 @@ let browser: Browser;
 function initialState(): unknown {
   const wb = officeMock.createWorkbook();
   let s = 12345;
-  const u = () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 4294967296);
+  const u = () => (s = (Math.imul(s, 1664525) + 1013904223) >>> 0) / 4294967296;
   const src: unknown[][] = [['income', 'age']];
   for (let i = 0; i < 300; i++) src.push([Math.exp(2 * u()), 20 + 40 * u()]);
   src[5][0] = 'n/a';
@@ -51,7 +59,11 @@ const BUILT = fs.existsSync(path.join(DIST, 'taskpane.html')) && fs.existsSync(p
 const HAS_CHROMIUM = fs.existsSync('/usr/bin/chromium');
 const RUN = Boolean(process.env.CI) || (BUILT && HAS_CHROMIUM);
 if (!RUN) {
-  console.log(`browser tests skipped: ${!BUILT ? 'run npm run build first' : ''}${!BUILT && !HAS_CHROMIUM ? '; ' : ''}${!HAS_CHROMIUM ? 'install Chromium (apt-get install -y chromium)' : ''} (CI always runs them)`);
+  console.log(
+    `browser tests skipped: ` +
+      `${!BUILT ? 'run npm run build first' : ''}${!BUILT && !HAS_CHROMIUM ? '; ' : ''}` +
+      `${!HAS_CHROMIUM ? 'install Chromium (apt-get install -y chromium)' : ''} (CI always runs them)`,
+  );
 }
 const describeInBrowser = RUN ? describe : describe.skip;
 
@@ -76,7 +88,16 @@ beforeAll(async () => {
   base = `http://127.0.0.1:${(server.address() as AddressInfo).port}/`;
   browser = await chromium.launch({
     executablePath: '/usr/bin/chromium',
-    args: ['--headless', '--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    args: [
+      '--headless',
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
   });
 });
 
@@ -92,7 +113,9 @@ async function openPane(state: unknown): Promise<Page> {
   page.on('pageerror', (e) => problems.push(String(e)));
   (page as unknown as { problems: string[] }).problems = problems;
   // office.js itself is not fetched: the mock stands in for it.
-  await page.route('https://appsforoffice.microsoft.com/**', (route) => route.fulfill({ status: 200, contentType: 'text/javascript', body: '/* office.js replaced by the test mock */' }));
+  await page.route('https://appsforoffice.microsoft.com/**', (route) =>
+    route.fulfill({ status: 200, contentType: 'text/javascript', body: '/* office.js replaced by the test mock */' }),
+  );
   await page.addInitScript({ content: `window.__officeMockOptions = { state: ${JSON.stringify(state)} };` });
   await page.addInitScript({ content: MOCK_SOURCE });
   await page.goto(`${base}taskpane.html`);
@@ -109,7 +132,12 @@ async function waitText(page: Page, selector: string, re: RegExp | string, timeo
   const t0 = Date.now();
   let last = '';
   for (;;) {
-    last = (await page.locator(selector).first().textContent().catch(() => null)) ?? '';
+    last =
+      (await page
+        .locator(selector)
+        .first()
+        .textContent()
+        .catch(() => null)) ?? '';
     if (typeof re === 'string' ? last === re : re.test(last)) return last;
     if (Date.now() - t0 > timeout) throw new Error(`${selector}: text "${last}" did not match ${String(re)} within ${timeout} ms`);
     await new Promise((r) => setTimeout(r, 50));
@@ -122,88 +150,98 @@ async function useSelection(page: Page, address: string, button: string): Promis
 }
 
 describeInBrowser('the task pane in Chromium over a mocked workbook', () => {
-  test('select ranges, fit with progress, see diagnostics, warnings and plots; the formula finds the same map; a reopened workbook applies it identically', async () => {
-    const page = await openPane(initialState());
-    await useSelection(page, 'Sheet1!A1:B301', 'source-pick');
-    await useSelection(page, 'Sheet1!D1:E401', 'target-pick');
-    await waitText(page, '#source-info', /298 rows × 2 columns \(income, age\); 2 entries skipped/);
-    await waitText(page, '#target-info', /400 rows × 2 columns/);
-    await waitText(page, '#method-info', /Auto picks entropic/);
+  test(
+    'select ranges, fit with progress, see diagnostics, warnings and plots; the formula finds the same map; a reopened workbook applies it ' + 'identically',
+    async () => {
+      const page = await openPane(initialState());
+      await useSelection(page, 'Sheet1!A1:B301', 'source-pick');
+      await useSelection(page, 'Sheet1!D1:E401', 'target-pick');
+      await waitText(page, '#source-info', /298 rows × 2 columns \(income, age\); 2 entries skipped/);
+      await waitText(page, '#target-info', /400 rows × 2 columns/);
+      await waitText(page, '#method-info', /Auto picks entropic/);
 
-    await page.selectOption('#method', 'gradient-net');
-    await page.click('#settings-box summary');
-    await page.fill('#setting-steps', '120');
-    await page.fill('#setting-batch', '64');
-    await useSelection(page, 'Sheet1!H2', 'result-pick');
-    await waitText(page, '#formula-preview', '=REMAP.FIT(Sheet1!A1:B301,Sheet1!D1:E401,"gradient-net","steps=120; batch=64")');
+      await page.selectOption('#method', 'gradient-net');
+      await page.click('#settings-box summary');
+      await page.fill('#setting-steps', '120');
+      await page.fill('#setting-batch', '64');
+      await useSelection(page, 'Sheet1!H2', 'result-pick');
+      await waitText(page, '#formula-preview', '=REMAP.FIT(Sheet1!A1:B301,Sheet1!D1:E401,"gradient-net","steps=120; batch=64")');
 
-    await page.evaluate(() => {
-      const w = window as any;
-      w.__progress = [];
-      new MutationObserver(() => w.__progress.push(document.getElementById('progress-text')!.textContent)).observe(document.getElementById('progress-text')!, { childList: true, characterData: true, subtree: true });
-    });
-    await page.click('#fit');
-    await page.locator('#results').waitFor({ state: 'visible', timeout: 40_000 });
-    const progress: string[] = await page.evaluate(() => (window as any).__progress);
-    expect(progress.filter((t) => /^Step \d+ of 120 · loss/.test(t)).length).toBeGreaterThanOrEqual(2);
+      await page.evaluate(() => {
+        const w = window as any;
+        w.__progress = [];
+        new MutationObserver(() => w.__progress.push(document.getElementById('progress-text')!.textContent)).observe(
+          document.getElementById('progress-text')!,
+          {
+            childList: true,
+            characterData: true,
+            subtree: true,
+          },
+        );
+      });
+      await page.click('#fit');
+      await page.locator('#results').waitFor({ state: 'visible', timeout: 40_000 });
+      const progress: string[] = await page.evaluate(() => (window as any).__progress);
+      expect(progress.filter((t) => /^Step \d+ of 120 · loss/.test(t)).length).toBeGreaterThanOrEqual(2);
 
-    // Diagnostics in words, the skipped entries as a warning with what to do, and the plots drawn as SVG.
-    await waitText(page, '#diagnostics li', /Moved 298 source rows onto 400 target rows \(2 columns: income, age\) with the gradient-net method/);
-    expect(await page.locator('#warnings li', { hasText: 'Entries skipped' }).textContent()).toContain('What to do:');
-    expect(await page.locator('#plot-dist svg path.series').count()).toBe(3);
-    expect(await page.locator('#plot-qq svg circle.pt').count()).toBeGreaterThan(10);
-    expect(await page.locator('#plot-scatter svg circle.pt').count()).toBeGreaterThan(100);
-    await page.selectOption('#plot-kind', 'histogram');
-    expect(await page.locator('#plot-dist svg path.series').count()).toBe(3);
-    await page.selectOption('#plot-kind', 'ecdf');
+      // Diagnostics in words, the skipped entries as a warning with what to do, and the plots drawn as SVG.
+      await waitText(page, '#diagnostics li', /Moved 298 source rows onto 400 target rows \(2 columns: income, age\) with the gradient-net method/);
+      expect(await page.locator('#warnings li', { hasText: 'Entries skipped' }).textContent()).toContain('What to do:');
+      expect(await page.locator('#plot-dist svg path.series').count()).toBe(3);
+      expect(await page.locator('#plot-qq svg circle.pt').count()).toBeGreaterThan(10);
+      expect(await page.locator('#plot-scatter svg circle.pt').count()).toBeGreaterThan(100);
+      await page.selectOption('#plot-kind', 'histogram');
+      expect(await page.locator('#plot-dist svg path.series').count()).toBe(3);
+      await page.selectOption('#plot-kind', 'ecdf');
 
-    // The formula was written and, calculated by the real REMAP.FIT, found the pane's map under the same handle.
-    const handle = (await page.locator('#result-handle').textContent())!.trim();
-    expect(handle).toMatch(/^remap:gradient-net:298x2:[0-9a-f]{14}$/);
-    const fitCell = await page.evaluate(() => (window as any).__officeMock.cellAt('Sheet1!H2'));
-    expect(fitCell.formula).toBe('=REMAP.FIT(Sheet1!A1:B301,Sheet1!D1:E401,"gradient-net","steps=120; batch=64")');
-    expect(fitCell.value).toBe(handle);
-    await page.screenshot({ path: path.join(SHOTS, 'taskpane-after-fit.png'), fullPage: true });
-    await page.click('#settings-box summary');
-    await page.locator('#results').screenshot({ path: path.join(SHOTS, 'taskpane-results.png') });
+      // The formula was written and, calculated by the real REMAP.FIT, found the pane's map under the same handle.
+      const handle = (await page.locator('#result-handle').textContent())!.trim();
+      expect(handle).toMatch(/^remap:gradient-net:298x2:[0-9a-f]{14}$/);
+      const fitCell = await page.evaluate(() => (window as any).__officeMock.cellAt('Sheet1!H2'));
+      expect(fitCell.formula).toBe('=REMAP.FIT(Sheet1!A1:B301,Sheet1!D1:E401,"gradient-net","steps=120; batch=64")');
+      expect(fitCell.value).toBe(handle);
+      await page.screenshot({ path: path.join(SHOTS, 'taskpane-after-fit.png'), fullPage: true });
+      await page.click('#settings-box summary');
+      await page.locator('#results').screenshot({ path: path.join(SHOTS, 'taskpane-results.png') });
 
-    // The map list reads the workbook store.
-    await waitText(page, '#maps li .name', /gradient-net · 298 × 2/);
+      // The map list reads the workbook store.
+      await waitText(page, '#maps li .name', /gradient-net · 298 × 2/);
 
-    // A native chart on a new sheet.
-    await page.click('#insert-chart');
-    await waitText(page, '#status', /Inserted a chart of income on the new sheet "Remap chart"/);
-    const charts = await page.evaluate(() => (window as any).__officeMock.state.sheets.map((s: any) => [s.name, s.charts.length, s.charts[0]?.type]));
-    expect(charts).toContainEqual(['Remap chart', 1, 'XYScatterLinesNoMarkers']);
+      // A native chart on a new sheet.
+      await page.click('#insert-chart');
+      await waitText(page, '#status', /Inserted a chart of income on the new sheet "Remap chart"/);
+      const charts = await page.evaluate(() => (window as any).__officeMock.state.sheets.map((s: any) => [s.name, s.charts.length, s.charts[0]?.type]));
+      expect(charts).toContainEqual(['Remap chart', 1, 'XYScatterLinesNoMarkers']);
 
-    // Apply: the pane writes REMAP.APPLY; the mock calculates it with the real function.
-    await useSelection(page, 'Sheet1!A2:B40', 'apply-values-pick');
-    await useSelection(page, 'Sheet1!J2', 'apply-out-pick');
-    await page.click('#apply');
-    await waitText(page, '#status', /Wrote =REMAP.APPLY\(Sheet1!H2,Sheet1!A2:B40\) in Sheet1!J2/);
-    await page.waitForFunction(() => Array.isArray((window as any).__officeMock.cellAt('Sheet1!J2').spill));
-    const applied = await page.evaluate(() => (window as any).__officeMock.cellAt('Sheet1!J2').spill);
-    expect(typeof applied[0][0]).toBe('number');
-    const state = await page.evaluate(() => (window as any).__officeMock.state);
-    expect((page as unknown as { problems: string[] }).problems).toEqual([]);
-    await page.close();
+      // Apply: the pane writes REMAP.APPLY; the mock calculates it with the real function.
+      await useSelection(page, 'Sheet1!A2:B40', 'apply-values-pick');
+      await useSelection(page, 'Sheet1!J2', 'apply-out-pick');
+      await page.click('#apply');
+      await waitText(page, '#status', /Wrote =REMAP.APPLY\(Sheet1!H2,Sheet1!A2:B40\) in Sheet1!J2/);
+      await page.waitForFunction(() => Array.isArray((window as any).__officeMock.cellAt('Sheet1!J2').spill));
+      const applied = await page.evaluate(() => (window as any).__officeMock.cellAt('Sheet1!J2').spill);
+      expect(typeof applied[0][0]).toBe('number');
+      const state = await page.evaluate(() => (window as any).__officeMock.state);
+      expect((page as unknown as { problems: string[] }).problems).toEqual([]);
+      await page.close();
 
-    // Close and reopen: a fresh page (nothing in memory) over the saved state; APPLY gives the same values, no fit.
-    const reopened = await openPane(state);
-    const again = await reopened.evaluate(async () => {
-      const m = (window as any).__officeMock;
-      const c = m.cellAt('Sheet1!J2');
-      delete c.spill;
-      const sheet = m.state.sheets.find((s: any) => s.name === 'Sheet1');
-      m.recalc(sheet, 1, 9);
-      for (let i = 0; i < 100 && !c.spill; i++) await new Promise((r) => setTimeout(r, 50));
-      return { spill: c.spill, error: c.error, message: c.message };
-    });
-    expect(again.error).toBeUndefined();
-    expect(again.spill).toEqual(applied);
-    await waitText(reopened, '#maps li .name', /gradient-net · 298 × 2/);
-    await reopened.close();
-  });
+      // Close and reopen: a fresh page (nothing in memory) over the saved state; APPLY gives the same values, no fit.
+      const reopened = await openPane(state);
+      const again = await reopened.evaluate(async () => {
+        const m = (window as any).__officeMock;
+        const c = m.cellAt('Sheet1!J2');
+        delete c.spill;
+        const sheet = m.state.sheets.find((s: any) => s.name === 'Sheet1');
+        m.recalc(sheet, 1, 9);
+        for (let i = 0; i < 100 && !c.spill; i++) await new Promise((r) => setTimeout(r, 50));
+        return { spill: c.spill, error: c.error, message: c.message };
+      });
+      expect(again.error).toBeUndefined();
+      expect(again.spill).toEqual(applied);
+      await waitText(reopened, '#maps li .name', /gradient-net · 298 × 2/);
+      await reopened.close();
+    },
+  );
 
   test('Cancel stops a long fit within a second and writes nothing', async () => {
     const page = await openPane(initialState());
@@ -264,14 +302,21 @@ describeInBrowser('the task pane in Chromium over a mocked workbook', () => {
         await ctx.sync();
       });
     }, formula);
-    await page.waitForFunction(() => /^remap:gradient-net:/.test(String((window as any).__officeMock.cellAt('Sheet1!H5').value)), undefined, { timeout: 90_000 });
+    await page.waitForFunction(() => /^remap:gradient-net:/.test(String((window as any).__officeMock.cellAt('Sheet1!H5').value)), undefined, {
+      timeout: 90_000,
+    });
     const blocked = await page.evaluate(() => {
       const w = window as any;
       clearInterval(w.__probe);
       return w.__blocked;
     });
-    const log = await page.evaluate(() => (window as any).__officeMock.streamLog.filter((e: any) => e.address === 'Sheet1!H5').map((e: any) => String(e.value)));
-    console.log(`while a cell fitted: longest main-thread task ${blocked.longestTask.toFixed(0)} ms (${blocked.tasks} tasks over 50 ms), longest timer gap ${blocked.longestGap.toFixed(0)} ms`);
+    const log = await page.evaluate(() =>
+      (window as any).__officeMock.streamLog.filter((e: any) => e.address === 'Sheet1!H5').map((e: any) => String(e.value)),
+    );
+    console.log(
+      `while a cell fitted: longest main-thread task ${blocked.longestTask.toFixed(0)} ms (${blocked.tasks} tasks over 50 ms), longest timer gap ` +
+        `${blocked.longestGap.toFixed(0)} ms`,
+    );
     // The cell streamed progress from the worker, then its handle.
     expect(log.some((t: string) => /^fitting gradient-net: step \d+\/400/.test(t))).toBe(true);
     // Source: design choice (a responsiveness contract: no task on the pane's thread of 100 ms or more while a cell fits)

@@ -16,7 +16,8 @@ describe('the XML the store writes', () => {
   });
 
   test('xmlElements reads our elements with any namespace prefix, self-closing or not', () => {
-    const xml = '<?xml version="1.0"?><ns0:maps xmlns:ns0="urn:x"><ns0:map handle="h&amp;1" cell=\'A1\'><ns0:part id="{1}"/><ns0:part id="{2}"/></ns0:map></ns0:maps>';
+    const xml =
+      '<?xml version="1.0"?><ns0:maps xmlns:ns0="urn:x"><ns0:map handle="h&amp;1" cell=\'A1\'><ns0:part id="{1}"/><ns0:part id="{2}"/></ns0:map></ns0:maps>';
     const maps = xmlElements(xml, 'map');
     expect(maps).toHaveLength(1);
     expect(maps[0].attrs).toMatchObject({ handle: 'h&1', cell: 'A1' });

@@ -22,12 +22,17 @@ const SETTINGS: Record<string, Record<string, string>> = {
   entropic: { seed: '11', max_iterations: '200' },
   'gradient-net': { seed: '11', steps: '3', hidden: '3', batch: '8', backend: 'cpu', time_budget: '30' },
 };
-const settingsText = (m: string) => Object.entries(SETTINGS[m] ?? {}).map(([k, v]) => `${k}=${v}`).join('; ');
+const settingsText = (m: string) =>
+  Object.entries(SETTINGS[m] ?? {})
+    .map(([k, v]) => `${k}=${v}`)
+    .join('; ');
 
 /** Seeded data: d columns, n rows, values with long binary expansions so that rounding differences would show. */
 function data(n: number, d: number, seed: number, ordinal: boolean): number[][] {
   const r = new Random(seed);
-  return Array.from({ length: n }, () => Array.from({ length: d }, (_, k) => (ordinal ? Math.floor(r.uniform() * 7) : r.uniform() * 3 + Math.sqrt(2) * k + r.uniform() / 3)));
+  return Array.from({ length: n }, () =>
+    Array.from({ length: d }, (_, k) => (ordinal ? Math.floor(r.uniform() * 7) : r.uniform() * 3 + Math.sqrt(2) * k + r.uniform() / 3)),
+  );
 }
 
 function sameBits(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
@@ -35,7 +40,6 @@ function sameBits(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
   for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
   return true;
 }
-
 
 const toCSV = (rows: number[][], cols: string[]) => [cols.join(','), ...rows.map((r) => r.map(String).join(','))].join('\n') + '\n';
 

@@ -17,7 +17,6 @@ async function until(done: () => boolean, limitMs = 30000): Promise<void> {
   while (!done() && Date.now() - t0 < limitMs) await tick(20);
 }
 
-
 /** A fake StreamingInvocation recording every result. */
 function invocation(address = 'Sheet1!F2') {
   const results: unknown[] = [];
@@ -80,7 +79,15 @@ describe('REMAP.FIT streams', () => {
   test('a method without its own time budget is stopped at time_budget with a clear #N/A', () => {
     const rows = Array.from({ length: 400 }, (_, i) => [Math.sin(i), Math.cos(3 * i)]);
     const { inv, results } = invocation();
-    F.fit(rows, rows.map(([a, b]) => [2 * a, b + 1]), 'entropic', 'time_budget=0.001; tolerance=1e-12', undefined, undefined, inv);
+    F.fit(
+      rows,
+      rows.map(([a, b]) => [2 * a, b + 1]),
+      'entropic',
+      'time_budget=0.001; tolerance=1e-12',
+      undefined,
+      undefined,
+      inv,
+    );
     expect(results).toHaveLength(1);
     const e = results[0] as StubSheetError;
     expect(e).toBeInstanceOf(StubSheetError);
@@ -120,7 +127,9 @@ describe('results within Excel limits', () => {
       err = e as StubSheetError;
     }
     expect(err?.code).toBe('#VALUE!');
-    expect(err?.message).toMatch(/more than the 5 MB Excel accepts from one function. Apply the map to fewer rows at a time: split the range into blocks of at most [\d,]+ rows/);
+    expect(err?.message).toMatch(
+      /more than the 5 MB Excel accepts from one function. Apply the map to fewer rows at a time: split the range into blocks of at most [\d,]+ rows/,
+    );
     const blocks = Number(/at most ([\d,]+) rows/.exec(String(err?.message))?.[1].replace(/,/g, ''));
     const ok = (await F.apply(h, vals.slice(0, blocks))) as number[][];
     expect(JSON.stringify(ok).length).toBeLessThanOrEqual(MAX_RESULT_BYTES);
@@ -144,7 +153,11 @@ describe('results within Excel limits', () => {
     const s = Array.from({ length: 40 }, (_, i) => [Math.sin(i) + i / 40, Math.cos(2 * i)]);
     const t = s.map(([a, b]) => [3 * a - 1, a + 2 * b]);
     const h = (await F.fit(s, t, 'linear')) as unknown as string;
-    const probe = [[0.1, 0.2], [-1.5, 3], [7, -2]];
+    const probe = [
+      [0.1, 0.2],
+      [-1.5, 3],
+      [7, -2],
+    ];
     const direct = (await F.apply(h, probe)) as number[][];
     const json = (await F.save(h)) as unknown as string;
     forgetAll();

@@ -115,7 +115,8 @@ describe('cli/main.ts', () => {
 
 describe('linear/fit.ts with linear/scale-check.ts: data too small or too large for double precision', () => {
   const rows = (scale: number) => Array.from({ length: 12 }, (_, i) => [((i * 7) % 12 - 5) * scale]);
-  test.each([1e-300, 1e-160, 1e-100, 1e150])('data of size %p: #NUM! saying to rescale (was "every value is the same" or an internal eigen-solver message)', (scale) => {
+  test.each([1e-300, 1e-160, 1e-100, 1e150])('data of size %p: #NUM! saying to rescale (was "every value is the same" or an internal eigen-solver ' +
+    'message)', (scale) => {
     const target = Array.from({ length: 12 }, (_, i) => [((i * 5) % 12) * (scale === 1e-100 ? 1e-100 : 1)]);
     const e = sheetError(() => F.cost(rows(scale), scale === 1e-100 ? target : rows(1), 'linear'));
     expect(e.code).toBe('#NUM!');

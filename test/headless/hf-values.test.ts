@@ -16,7 +16,17 @@ describe('values in from HyperFormula', () => {
   });
   test('a range becomes a list of rows; a missing argument stays undefined', () => {
     // Source: src/input/coerce.ts (a range is a list of rows)
-    expect(argFromHf(SimpleRangeValue.onlyValues([[1, EmptyValue], ['a', 2]] as never))).toEqual([[1, null], ['a', 2]]);
+    expect(
+      argFromHf(
+        SimpleRangeValue.onlyValues([
+          [1, EmptyValue],
+          ['a', 2],
+        ] as never),
+      ),
+    ).toEqual([
+      [1, null],
+      ['a', 2],
+    ]);
     expect(argFromHf(undefined)).toBeUndefined();
   });
 });
@@ -36,7 +46,16 @@ describe('values out to HyperFormula', () => {
   test('a grid is padded with blanks to the announced size, and a longer one is cut with a note in its last row', () => {
     // Source: the function's contract
     expect(gridToHf([[1], [2]], 3, 1).data).toEqual([[1], [2], [EmptyValue]]);
-    const cut = gridToHf([['a', 1], ['b', 2], ['c', 3], ['d', 4]], 3, 2).data;
+    const cut = gridToHf(
+      [
+        ['a', 1],
+        ['b', 2],
+        ['c', 3],
+        ['d', 4],
+      ],
+      3,
+      2,
+    ).data;
     expect(cut[0]).toEqual(['a', 1]);
     expect(cut[2][0]).toBe('(2 more rows not shown)');
   });

@@ -42,7 +42,9 @@ describe('HyperFormula stays out of the add-in bundle', () => {
   });
   test('the import scanner finds static, re-export, side-effect and dynamic imports (so the check above can fail)', () => {
     // Source: worked example
-    const text = `import { A } from 'hyperformula';\nimport 'x/registry';\nexport { B } from '../headless/run';\nconst c = require("hyperformula/commonjs");\nconst d = import('y');`;
+    const text =
+      `import { A } from 'hyperformula';\nimport 'x/registry';\nexport { B } from '../headless/run';\nconst c = ` +
+      `require("hyperformula/commonjs");\nconst d = import('y');`;
     expect(importsOf(text)).toEqual(['hyperformula', 'x/registry', '../headless/run', 'hyperformula/commonjs', 'y']);
   });
   test('the webpack entries do not reach src/headless', () => {

@@ -27,7 +27,9 @@ describe('quantileOf', () => {
   });
   test('extentOf spans all non-empty series', () => {
     // Source: worked example
-    expect(extentOf([sortSeries({ name: 'a', values: [1, 5] }), sortSeries({ name: 'b', values: [-2] }), sortSeries({ name: 'c', values: [] })])).toEqual([-2, 5]);
+    expect(extentOf([sortSeries({ name: 'a', values: [1, 5] }), sortSeries({ name: 'b', values: [-2] }), sortSeries({ name: 'c', values: [] })])).toEqual([
+      -2, 5,
+    ]);
   });
 });
 

@@ -14,7 +14,14 @@ import { PLOT_MAX_ROWS } from './messages';
  */
 export async function runFitJob(req: FitRequest, onProgress: (p: Progress) => void, signal?: { readonly aborted: boolean }): Promise<FitDone> {
   const t0 = Date.now();
-  const inputs = readFit('REMAP.FIT', { source: req.source, target: req.target, method: req.method, settings: req.settings || null, sourceWeights: req.sourceWeights, targetWeights: req.targetWeights });
+  const inputs = readFit('REMAP.FIT', {
+    source: req.source,
+    target: req.target,
+    method: req.method,
+    settings: req.settings || null,
+    sourceWeights: req.sourceWeights,
+    targetWeights: req.targetWeights,
+  });
   const map = await fitFromInputs(inputs, { onProgress, signal });
   const diagnostics = map.diagnostics();
   const json = JSON.stringify(map.toJSON());
