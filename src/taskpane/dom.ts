@@ -4,11 +4,42 @@ export const $ = <T extends HTMLElement = HTMLElement>(id: string): T => documen
 /** Plots' width in the pane (px): fits Office's default pane width. */
 export const PLOT_WIDTH = 290;
 
-/** Shows a line in the status area; `bad` marks it as an error. */
+/**
+ * Shows a line in the status area. An error (`bad`) goes to the alert line
+ * (role=alert: screen readers read it at once); anything else to the status line
+ * (role=status: read when the reader is idle), and clears the last error.
+ */
 export function setStatus(text: string, bad = false): void {
-  const s = $('status');
-  s.textContent = text;
-  s.classList.toggle('bad', bad);
+  const status = $('status');
+  const alert = $('alert');
+  if (bad) {
+    status.textContent = '';
+    alert.textContent = text;
+    alert.hidden = false;
+  } else {
+    alert.textContent = '';
+    alert.hidden = true;
+    status.textContent = text;
+  }
+}
+
+/** Says `text` to screen readers through the polite announcer, without showing it. */
+export function announce(text: string): void {
+  $('announcer').textContent = text;
+}
+
+/**
+ * Redraws a list without losing the keyboard focus: when focus was on a control
+ * inside `list` that has a data-focus-key, the control with the same key gets it
+ * back; if that one is gone (its item was deleted), `fallback` does.
+ */
+export function redrawKeepingFocus(list: HTMLElement, items: readonly Node[], fallback: HTMLElement): void {
+  const active = document.activeElement as HTMLElement | null;
+  const key = active && list.contains(active) ? active.dataset.focusKey : undefined;
+  list.replaceChildren(...items);
+  if (key === undefined) return;
+  const again = Array.from(list.querySelectorAll<HTMLElement>('[data-focus-key]')).find((e) => e.dataset.focusKey === key);
+  (again ?? fallback).focus();
 }
 
 /** An error's message, or the thrown value as text. */

@@ -4,7 +4,7 @@ import { restoreMap } from '../engine/methods';
 import { cellMap, isHandle, recall } from '../fits';
 import { findRemapFormulas, type FoundFormula } from '../workbook/formulas';
 import { selectRange } from '../workbook/ranges';
-import { $, listItem, messageOf } from './dom';
+import { $, listItem, messageOf, redrawKeepingFocus } from './dom';
 import { formulaStatus, remapFunctionOf } from './formula-status';
 import { pane } from './pane-state';
 
@@ -22,8 +22,7 @@ export async function refreshFormulas(): Promise<void> {
   try {
     const found = await findRemapFormulas(pane.run);
     const items = await Promise.all(found.formulas.map(formulaItem));
-    if (items.length === 0) ul.replaceChildren(listItem('No REMAP formulas in this workbook yet.', 'muted'));
-    else ul.replaceChildren(...items);
+    redrawKeepingFocus(ul, items.length === 0 ? [listItem('No REMAP formulas in this workbook yet.', 'muted')] : items, $('formulas-refresh'));
     const left = [
       found.truncated ? 'Only the first 500 formulas are listed.' : '',
       found.skippedSheets.length ? `Sheets too large to search: ${found.skippedSheets.join(', ')}.` : '',
@@ -65,6 +64,7 @@ async function formulaItem(f: FoundFormula): Promise<HTMLLIElement> {
   head.className = 'link';
   head.textContent = f.address;
   head.setAttribute('aria-label', `Select ${f.address}`);
+  head.dataset.focusKey = f.address;
   head.addEventListener('click', () => void selectRange(pane.run, f.address).catch(() => undefined));
   const code = document.createElement('code');
   code.textContent = f.formula.length > 120 ? `${f.formula.slice(0, 117)}\u2026` : f.formula;

@@ -3,7 +3,7 @@ import { restoreMap } from '../engine/methods';
 import { forget, watchFits } from '../fits';
 import type { KeptMap } from '../workbook/map-store';
 import { reenterFormula, selectRange } from '../workbook/ranges';
-import { $, listItem, messageOf, setStatus } from './dom';
+import { $, listItem, messageOf, redrawKeepingFocus, setStatus } from './dom';
 import { budgetMsFor } from './method-section';
 import { pane } from './pane-state';
 import { num } from './plain-words';
@@ -17,11 +17,8 @@ export async function refreshMaps(): Promise<void> {
   const ul = $('maps');
   try {
     const maps = await pane.store.list();
-    if (maps.length === 0) {
-      ul.replaceChildren(listItem('No maps are kept in this workbook yet.', 'muted'));
-      return;
-    }
-    ul.replaceChildren(...maps.map(mapItem));
+    const items = maps.length === 0 ? [listItem('No maps are kept in this workbook yet.', 'muted')] : maps.map(mapItem);
+    redrawKeepingFocus(ul, items, $('maps-refresh'));
   } catch (e) {
     ul.replaceChildren(listItem(`Could not read the maps: ${messageOf(e)}`, 'muted'));
   }
@@ -48,6 +45,7 @@ function mapItem(m: KeptMap): HTMLLIElement {
     b.className = 'btn small';
     b.textContent = label;
     b.setAttribute('aria-label', `${aria} ${m.method} map ${m.handle}`);
+    b.dataset.focusKey = `${label}:${m.handle}`;
     b.addEventListener('click', f);
     actions.append(b);
   };

@@ -27,7 +27,7 @@ export interface PaneState {
   /** The method whose settings are listed. */
   settingsFor: string;
   /** The loss curve drawn so far ([step, loss]) and the running fit's time budget (ms), for the progress area. */
-  progress: { points: [number, number][]; budgetMs: number };
+  progress: { points: [number, number][]; budgetMs: number; milestone: number };
 }
 
 export const pane: PaneState = {
@@ -39,5 +39,5 @@ export const pane: PaneState = {
   entered: {},
   samples: { source: null, target: null },
   settingsFor: '',
-  progress: { points: [], budgetMs: Infinity },
+  progress: { points: [], budgetMs: Infinity, milestone: 0 },
 };

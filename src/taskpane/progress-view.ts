@@ -1,5 +1,5 @@
 import type { Progress } from '../engine/map';
-import { $, PLOT_WIDTH } from './dom';
+import { $, announce, PLOT_WIDTH } from './dom';
 import { lossCurve } from './loss-curve';
 import { pane } from './pane-state';
 import { num } from './plain-words';
@@ -9,7 +9,8 @@ import { durationText, timeLeftMs } from './time-left';
 
 /** Shows the progress area for a new fit (Cancel only when the pane can stop the fit). */
 export function resetProgress(title: string, budgetMs: number, cancellable: boolean): void {
-  pane.progress = { points: [], budgetMs };
+  pane.progress = { points: [], budgetMs, milestone: 0 };
+  announce(`${title} Progress is announced at each quarter.`);
   $('progress-title').textContent = title;
   $<HTMLProgressElement>('progress-bar').removeAttribute('value');
   $('progress-text').textContent = 'Starting\u2026';
@@ -38,6 +39,12 @@ export function updateProgress(p: Progress): void {
     (left !== null && points.length >= 2 ? ` \u00b7 about ${durationText(left)} left` : '') +
     (p.message ? ` \u00b7 ${p.message}` : '');
   $('loss-curve').innerHTML = lossCurve(points, PLOT_WIDTH, 64);
+  // Screen readers hear milestones only (each quarter, and the end), not every report.
+  const quarter = p.of > 0 ? Math.min(4, Math.floor((4 * Math.min(p.step, p.of)) / p.of)) : 0;
+  if (quarter > prog.milestone) {
+    prog.milestone = quarter;
+    announce(quarter === 4 ? `Fit finished: step ${p.step} of ${p.of}.` : `Fit ${25 * quarter}% done: step ${p.step} of ${p.of}.`);
+  }
 }
 
 /** Hides the progress area. */

@@ -29,6 +29,7 @@ import { refreshMaps } from './maps-section';
 import { updateFormula, updateMethodInfo } from './method-section';
 import { pane } from './pane-state';
 import { drawPlots, insertChart } from './results-section';
+import { followOfficeTheme } from './theme';
 
 export { listedFunctions } from './function-list';
 
@@ -45,6 +46,7 @@ const PICKERS: readonly [string, string][] = [
 ];
 
 function start(): void {
+  followOfficeTheme();
   pane.run = officeRun();
   pane.store = workbookKeeper();
   const method = $<HTMLSelectElement>('method');

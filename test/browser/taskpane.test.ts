@@ -144,6 +144,20 @@ async function waitText(page: Page, selector: string, re: RegExp | string, timeo
   }
 }
 
+/** Trace categories that record every task a renderer thread runs (RunTask, with its duration). */
+const TRACE_CATEGORIES = ['toplevel', 'disabled-by-default-devtools.timeline'];
+
+/** The longest task (ms) on a page's main thread (CrRendererMain) in a Chromium trace. */
+function longestMainThreadTask(trace: Buffer): number {
+  const events: { ph: string; name: string; pid: number; tid: number; dur?: number; args?: { name?: string } }[] = JSON.parse(
+    trace.toString('utf8'),
+  ).traceEvents;
+  const mains = new Set(events.filter((e) => e.ph === 'M' && e.name === 'thread_name' && e.args?.name === 'CrRendererMain').map((e) => `${e.pid}:${e.tid}`));
+  let longest = 0;
+  for (const e of events) if (e.ph === 'X' && e.name === 'RunTask' && mains.has(`${e.pid}:${e.tid}`)) longest = Math.max(longest, (e.dur ?? 0) / 1000);
+  return longest;
+}
+
 async function useSelection(page: Page, address: string, button: string): Promise<void> {
   await page.evaluate((a) => (window as any).__officeMock.select(a), address);
   await page.click(`#${button}`);
@@ -268,33 +282,32 @@ describeInBrowser('the task pane in Chromium over a mocked workbook', () => {
   });
   test("a cell's gradient-net fit runs off the pane's thread, on the wasm backend: the pane's main thread is never blocked for 100 ms", async () => {
     const page = await openPane(initialState());
-    // Watch the main thread: the longest task (PerformanceObserver 'longtask', tasks over 50 ms) and the longest gap between timer ticks.
+    // The instrument can fail: a 150 ms busy loop on the page shows as a task of at least 150 ms on its main thread.
+    await browser.startTracing(page, { categories: TRACE_CATEGORIES });
+    await page.evaluate(
+      () =>
+        new Promise<void>((done) =>
+          setTimeout(() => {
+            const t = performance.now();
+            while (performance.now() - t < 150);
+            done();
+          }, 0),
+        ),
+    );
+    expect(longestMainThreadTask(await browser.stopTracing())).toBeGreaterThanOrEqual(150);
+
+    // Also the longest gap between timer ticks (it includes time the machine gave to other processes): logged only.
     await page.evaluate(() => {
       const w = window as any;
-      w.__blocked = { longestTask: 0, longestGap: 0, tasks: 0 };
-      new PerformanceObserver((list) => {
-        for (const e of list.getEntries()) {
-          w.__blocked.tasks++;
-          w.__blocked.longestTask = Math.max(w.__blocked.longestTask, e.duration);
-        }
-      }).observe({ type: 'longtask', buffered: false });
+      w.__gap = 0;
       let last = performance.now();
       w.__probe = setInterval(() => {
         const now = performance.now();
-        w.__blocked.longestGap = Math.max(w.__blocked.longestGap, now - last - 10);
+        w.__gap = Math.max(w.__gap, now - last - 10);
         last = now;
       }, 10);
     });
-    // The instrument can fail: a 150 ms busy loop on the page is seen as a long task.
-    await page.evaluate(() => {
-      const t = performance.now();
-      while (performance.now() - t < 150);
-    });
-    await page.waitForFunction(() => (window as any).__blocked.longestTask >= 150);
-    await page.evaluate(() => {
-      const w = window as any;
-      w.__blocked = { longestTask: 0, longestGap: 0, tasks: 0 };
-    });
+    await browser.startTracing(page, { categories: TRACE_CATEGORIES });
     const formula = '=REMAP.FIT(Sheet1!A1:B301,Sheet1!D1:E401,"gradient-net","steps=400; seed=3")';
     await page.evaluate(async (f) => {
       await (window as any).Excel.run(async (ctx: any) => {
@@ -305,22 +318,19 @@ describeInBrowser('the task pane in Chromium over a mocked workbook', () => {
     await page.waitForFunction(() => /^remap:gradient-net:/.test(String((window as any).__officeMock.cellAt('Sheet1!H5').value)), undefined, {
       timeout: 90_000,
     });
-    const blocked = await page.evaluate(() => {
-      const w = window as any;
-      clearInterval(w.__probe);
-      return w.__blocked;
+    const longest = longestMainThreadTask(await browser.stopTracing());
+    const gap: number = await page.evaluate(() => {
+      clearInterval((window as any).__probe);
+      return (window as any).__gap;
     });
     const log = await page.evaluate(() =>
       (window as any).__officeMock.streamLog.filter((e: any) => e.address === 'Sheet1!H5').map((e: any) => String(e.value)),
     );
-    console.log(
-      `while a cell fitted: longest main-thread task ${blocked.longestTask.toFixed(0)} ms (${blocked.tasks} tasks over 50 ms), longest timer gap ` +
-        `${blocked.longestGap.toFixed(0)} ms`,
-    );
+    console.log(`while a cell fitted: longest task on the pane's main thread ${longest.toFixed(1)} ms; longest timer gap ${gap.toFixed(0)} ms`);
     // The cell streamed progress from the worker, then its handle.
     expect(log.some((t: string) => /^fitting gradient-net: step \d+\/400/.test(t))).toBe(true);
     // Source: design choice (a responsiveness contract: no task on the pane's thread of 100 ms or more while a cell fits)
-    expect(blocked.longestTask).toBeLessThan(100);
+    expect(longest).toBeLessThan(100);
 
     // Which tensor backend trained it: the map's report says so in its convergence criterion.
     await page.evaluate(async () => {
@@ -334,6 +344,113 @@ describeInBrowser('the task pane in Chromium over a mocked workbook', () => {
     const criterion = report.map((r) => String(r[0])).find((label) => /backend/.test(label)) ?? '';
     // Source: design choice (the wasm binaries are served next to the page, in wasm/, and the worker is told so)
     expect(criterion).toMatch(/on the wasm backend/);
+    expect((page as unknown as { problems: string[] }).problems).toEqual([]);
+    await page.close();
+  });
+  test("accessibility: each state's accessibility tree has the roles and names a screen reader needs; warnings of every REMAP formula are listed", async () => {
+    const page = await openPane(initialState());
+    const tree = async () => page.locator('main').ariaSnapshot();
+    const shots: Record<string, string> = {};
+
+    // Opened: labelled inputs, the method list, the Fit button, the status line and the sections as headings.
+    shots.opened = await tree();
+    for (const want of [
+      '- textbox "Source range"',
+      '- textbox "Target range"',
+      '- combobox "Method"',
+      '- button "Fit"',
+      '- heading "Formulas in this workbook"',
+      '- heading "Before you rely on a map"',
+    ]) {
+      expect(shots.opened).toContain(want);
+    }
+
+    // Ranges chosen: each info line describes its input (aria-describedby).
+    await useSelection(page, 'Sheet1!A1:B301', 'source-pick');
+    await useSelection(page, 'Sheet1!D1:E401', 'target-pick');
+    await waitText(page, '#source-info', /298 rows/);
+    const described = await page.evaluate(() =>
+      ['source', 'target', 'method'].map((id) => {
+        const ref = document.getElementById(id)!.getAttribute('aria-describedby');
+        return ref ? document.getElementById(ref)?.textContent : null;
+      }),
+    );
+    expect(described[0]).toMatch(/298 rows × 2 columns/);
+    expect(described[1]).toMatch(/400 rows × 2 columns/);
+    expect(described[2]).toMatch(/Auto picks/);
+
+    // An error is an alert (read at once), not a status line.
+    await page.click('#fit');
+    shots.error = await tree();
+    expect(shots.error).toMatch(/- alert: Choose the cell for the result/);
+
+    // Fitting: a labelled progress bar and Cancel; screen readers hear milestones only, not every report.
+    await page.selectOption('#method', 'gradient-net');
+    await page.click('#settings-box summary');
+    await page.fill('#setting-steps', '200');
+    await page.fill('#setting-batch', '64');
+    await useSelection(page, 'Sheet1!H2', 'result-pick');
+    await page.evaluate(() => {
+      const w = window as any;
+      w.__said = [];
+      w.__shown = 0;
+      new MutationObserver(() => w.__said.push(document.getElementById('announcer')!.textContent)).observe(document.getElementById('announcer')!, {
+        childList: true,
+        characterData: true,
+        subtree: true,
+      });
+      new MutationObserver(() => w.__shown++).observe(document.getElementById('progress-text')!, { childList: true, characterData: true, subtree: true });
+    });
+    await page.click('#fit');
+    await waitText(page, '#progress-text', /Step \d+ of 200/, 20_000);
+    shots.fitting = await tree();
+    expect(shots.fitting).toContain('- progressbar "Fit progress"');
+    expect(shots.fitting).toContain('- button "Cancel"');
+    await page.locator('#results').waitFor({ state: 'visible', timeout: 40_000 });
+    const said: string[] = await page.evaluate(() => (window as any).__said);
+    const shown: number = await page.evaluate(() => (window as any).__shown);
+    // Source: design choice (announce the start and each quarter: at most 6 announcements, however many reports)
+    expect(shown).toBeGreaterThan(said.length);
+    expect(said.length).toBeLessThanOrEqual(6);
+    expect(said.some((t) => /Fit 50% done/.test(t))).toBe(true);
+
+    // Results: the diagnostics and the warnings as lists under their headings.
+    shots.results = await tree();
+    expect(shots.results).toContain('- heading "4. What the fit says"');
+    expect(shots.results).toContain('- heading "Warnings"');
+    expect(shots.results).toMatch(/- listitem:[\s\S]*Entries skipped/);
+
+    // The map list keeps the keyboard focus when it redraws.
+    await waitText(page, '#maps li .name', /gradient-net/);
+    const inspect = page.locator('#maps button', { hasText: 'Inspect' }).first();
+    await inspect.focus();
+    const key = await inspect.getAttribute('data-focus-key');
+    await page.evaluate(() => document.getElementById('maps-refresh')!.click());
+    await page.waitForTimeout(300);
+    expect(await page.evaluate(() => (document.activeElement as HTMLElement | null)?.dataset.focusKey)).toBe(key);
+
+    // A REMAP.VALUES cell typed by hand: the pane lists it with its map's warnings in words.
+    await page.evaluate(async () => {
+      await (window as any).Excel.run(async (context: any) => {
+        context.workbook.worksheets.getItem('Sheet1').getRange('M2').formulas = [['=REMAP.VALUES(Sheet1!A2:B20,Sheet1!A1:B301,Sheet1!D1:E401,"linear")']];
+        await context.sync();
+      });
+    });
+    await page.waitForFunction(() => Array.isArray((window as any).__officeMock.cellAt('Sheet1!M2').spill));
+    await page.click('#formulas-refresh');
+    const item = page.locator('#formulas > li', { hasText: 'Sheet1!M2' });
+    await item.waitFor({ timeout: 10_000 });
+    expect(await item.textContent()).toMatch(/Entries skipped: .*What to do:/);
+    shots.formulas = await tree();
+    expect(shots.formulas).toContain('- button "Select Sheet1!M2"');
+    expect(shots.formulas).toContain('- button "Select Sheet1!H2"');
+
+    fs.writeFileSync(
+      path.join(SHOTS, 'taskpane-aria.yaml'),
+      Object.entries(shots)
+        .map(([k, v]) => `# ${k}\n${v}\n`)
+        .join('\n'),
+    );
     expect((page as unknown as { problems: string[] }).problems).toEqual([]);
     await page.close();
   });
