@@ -132,7 +132,8 @@ module.exports = async (env) => {
       // The pane shares the functions bundle's modules (one map store, one engine) on the shared-runtime page.
       taskpane: { import: TASKPANE_SOURCE, dependOn: 'functions' },
       // Fits (the pane's, and worksheet cells' slow ones) run in a worker, so the page stays responsive and a cancel stops any method at once.
-      'fit-worker': FIT_WORKER_SOURCE,
+      // A worker has no document to add <script> tags to: chunks loaded lazily there (the trainer) come through importScripts.
+      'fit-worker': { import: FIT_WORKER_SOURCE, chunkLoading: 'import-scripts' },
     },
     output: {
       path: path.resolve(__dirname, 'dist'),

@@ -151,6 +151,11 @@ describe('manifest.xml identity', () => {
     expect([...REQUIRED_SETS].map((r) => `${r.name} ${r.version}`).sort()).toEqual([...sets].sort());
   });
 
+  test('the fit worker loads lazily split code with importScripts, as a worker must', () => {
+    // Source: webpack 5 documentation, entry descriptor chunkLoading ('jsonp' adds <script> tags, which a worker has no document for)
+    expect(config.entry['fit-worker']).toMatchObject({ import: './src/fits/worker/fit-worker.ts', chunkLoading: 'import-scripts' });
+  });
+
   test('support and learn-more links open the help page the build serves, not the pane', () => {
     // Source: design choice (a page of help, not the pane itself)
     const support = app.SupportUrl[0].$.DefaultValue;
