@@ -47,8 +47,11 @@ for (const n of [500, 1000, 2000]) {
   const t2 = performance.now();
   const table = t1 - t0;
   const solve = t2 - t1;
-  rows.push([String(n), String(d), table.toFixed(1), solve.toFixed(0), (solve / table).toFixed(1), ((cpu.user + cpu.system) / 1000).toFixed(0), String(found.augmentations), found.meanSquaredDistance.toFixed(4)]);
+  const cpuMs = ((cpu.user + cpu.system) / 1000).toFixed(0);
+  const ratio = (solve / table).toFixed(1);
+  rows.push([String(n), String(d), table.toFixed(1), solve.toFixed(0), ratio, cpuMs, String(found.augmentations), found.meanSquaredDistance.toFixed(4)]);
 }
 const widths = rows[0].map((_, c) => Math.max(...rows.map((r) => r[c].length)));
 for (const r of rows) console.log(r.map((v, c) => v.padStart(widths[c])).join('  '));
-console.log('solve = findPairs (standardise, build the table, Jonker-Volgenant); table = squaredDistanceTable alone; cpu = this process only (the wall figures include waiting for a shared core).');
+console.log('solve = findPairs (standardise, build the table, Jonker-Volgenant); table = squaredDistanceTable alone; cpu = this process only (the ' +
+  'wall figures include waiting for a shared core).');

@@ -97,7 +97,11 @@ async function child(scenario: string): Promise<void> {
     };
   }
   // warm-up on a small slice so the JIT has compiled the hot loops
-  fitMapSync('quantile', { n: 4096, d: 1, data: src.slice(0, 4096), weights: null }, { n: 4096, d: 1, data: tgt.slice(0, 4096), weights: null }).apply({ n: 4096, d: 1, data: src.slice(0, 4096) });
+  fitMapSync('quantile', { n: 4096, d: 1, data: src.slice(0, 4096), weights: null }, { n: 4096, d: 1, data: tgt.slice(0, 4096), weights: null }).apply({
+    n: 4096,
+    d: 1,
+    data: src.slice(0, 4096),
+  });
   const sortCopy = src.slice();
   const t0 = performance.now();
   sortCopy.sort();
@@ -165,7 +169,9 @@ function parent(): void {
   }
   const widths = rows[0].map((_, k) => Math.max(...rows.map((row) => (k === rows[0].length - 1 ? 0 : row[k].length))));
   for (const row of rows) console.log(row.map((c, k) => (k === row.length - 1 ? c : c.padStart(widths[k]))).join('  '));
-  console.log('x sort: the scenario time over the time to sort the 1,048,576-value column with Float64Array.prototype.sort, both measured in the same process.');
+  console.log(
+    'x sort: the scenario time over the time to sort the 1,048,576-value column with Float64Array.prototype.sort, both measured in the ' + 'same process.',
+  );
   console.log('peak RSS: the process high-water mark (includes the input arrays and the runtime, about 60-100 MB with tsx).');
 }
 

@@ -10,7 +10,7 @@ const Module = require('module');
 
 const root = path.resolve(__dirname, '..');
 const compiled = path.join(root, 'build', 'cli', 'cli', 'main.js');
-const sources = ['cli', 'engine', 'functions'].map((d) => path.join(root, 'src', d));
+const sources = ['cli', 'engine', 'input', 'fits', 'common'].map((d) => path.join(root, 'src', d));
 
 /** Newest modification time (ms) of the .ts files under the folders, or 0 when there are none. */
 function newestSource() {

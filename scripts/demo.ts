@@ -6,7 +6,7 @@
 import * as fs from 'fs';
 import * as path from 'path';
 import { COMPARISON_MAX_ROWS, COMPARISON_SEED, compareOn } from '../src/engine/assess';
-import { recall } from '../src/functions/store';
+import { recall } from '../src/fits/store';
 import { formatSummary, short, summariseFormulas } from '../src/headless/fit-summary';
 import { rangeNumbers } from '../src/headless/range-values';
 import { renderPlot } from '../src/headless/plot-spec';
@@ -31,7 +31,8 @@ export async function runDemo(outDir: string = OUTPUT_DIR, log: (line: string) =
     const summary = summariseFormulas(r.formulas);
     errors += summary.errors.length;
     log('');
-    log(`${d.title}: ${d.file}  (${r.formulas.length} formulas, ${(r.elapsedMs / 1000).toFixed(1)} s${r.passes > 1 ? `, ${r.passes} passes: waited for background fits` : ''})`);
+    log(`${d.title}: ${d.file}  (${r.formulas.length} formulas, ${(r.elapsedMs / 1000).toFixed(1)} ` +
+      `s${r.passes > 1 ? `, ${r.passes} passes: waited for background fits` : ''})`);
     for (const line of formatSummary(summary)) log(line);
     if (d.compareOn) for (const line of sameRowsComparison(summary, r.values, d.compareOn)) log(line);
     const plots: string[] = [];
@@ -42,7 +43,9 @@ export async function runDemo(outDir: string = OUTPUT_DIR, log: (line: string) =
     log(`  wrote ${path.relative(process.cwd(), out)} and plots ${plots.join(', ')}`);
   }
   log('');
-  log(`Done in ${((Date.now() - t0) / 1000).toFixed(1)} s; ${errors === 0 ? 'every formula calculated' : `${errors} formula${errors === 1 ? '' : 's'} gave errors (see above)`}. Open the .xlsx files in demo-output/ to see the formulas with their results; the .svg plots open in any browser.`);
+  log(`Done in ${((Date.now() - t0) / 1000).toFixed(1)} s; ` +
+    `${errors === 0 ? 'every formula calculated' : `${errors} formula${errors === 1 ? '' : 's'} gave errors (see above)`}. Open the .xlsx files ` +
+      `in demo-output/ to see the formulas with their results; the .svg plots open in any browser.`);
   return errors;
 }
 
@@ -51,7 +54,11 @@ export async function runDemo(outDir: string = OUTPUT_DIR, log: (line: string) =
  * maps fitted on different rows (the entropic fit uses fewer) can be put side
  * by side; a map that cannot map the rows says why. O(maps x compareOn's cost).
  */
-function sameRowsComparison(summary: ReturnType<typeof summariseFormulas>, values: Parameters<typeof rangeNumbers>[0], ranges: { source: string; target: string }): string[] {
+function sameRowsComparison(
+  summary: ReturnType<typeof summariseFormulas>,
+  values: Parameters<typeof rangeNumbers>[0],
+  ranges: { source: string; target: string },
+): string[] {
   const s = rangeNumbers(values, ranges.source);
   const t = rangeNumbers(values, ranges.target);
   const source = { n: s.rows, d: s.cols, data: s.data, weights: null };

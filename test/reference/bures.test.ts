@@ -51,7 +51,12 @@ describe('Bures-Wasserstein closed form against mathjs and textbook identities',
     const u = rng(77);
     const n = 200;
     const d = 3;
-    const mk = (shift: number): Sample => ({ n, d, data: Float64Array.from({ length: n * d }, (_, j) => shift + ((j % d) + 1) * u() + u() * u()), weights: null });
+    const mk = (shift: number): Sample => ({
+      n,
+      d,
+      data: Float64Array.from({ length: n * d }, (_, j) => shift + ((j % d) + 1) * u() + u() * u()),
+      weights: null,
+    });
     const s = mk(0);
     const t = mk(2);
     const map = fitLinear(s, t, { ridge: 0, units: 'raw' }, {}, { compare: false });
@@ -69,7 +74,12 @@ describe('Bures-Wasserstein closed form against mathjs and textbook identities',
     const u = rng(5);
     const n = 300;
     const d = 4;
-    const mk = (shift: number, seedScale: number): Sample => ({ n, d, data: Float64Array.from({ length: n * d }, (_, j) => shift + seedScale * ((j % d) + 1) * u() + u() ** 3), weights: null });
+    const mk = (shift: number, seedScale: number): Sample => ({
+      n,
+      d,
+      data: Float64Array.from({ length: n * d }, (_, j) => shift + seedScale * ((j % d) + 1) * u() + u() ** 3),
+      weights: null,
+    });
     const s = mk(0, 1);
     const t = mk(-1, 2);
     const map = fitLinear(s, t, { ridge: 0, units: 'raw' }, {}, { compare: false });

@@ -1,4 +1,7 @@
-import type { Diagnostics, Progress } from '../engine/map';
+import type { Diagnostics, Progress } from '../../engine/map';
+import type { Sample } from '../../engine/points';
+
+/* Messages between the page and the fit worker (fit-worker.ts). */
 
 /** What the pane asks the fit worker: the cells of one fit, exactly as REMAP.FIT would receive them. */
 export interface FitRequest {
@@ -42,7 +45,32 @@ export interface FitDone {
   readonly elapsedMs: number;
 }
 
+/**
+ * What a worksheet cell's fit asks the worker: samples already read on the page
+ * (the page derived the handle from them), the method and the engine's settings.
+ */
+export interface SampleFitRequest {
+  readonly type: 'fit-samples';
+  readonly id: number;
+  readonly method: string;
+  readonly source: Sample;
+  readonly target: Sample;
+  readonly settings: Record<string, unknown>;
+  readonly dropped: { readonly source: number; readonly target: number };
+  readonly columns: readonly string[] | null;
+}
+
+/** A cell's fit, finished in the worker: the map's JSON (its diagnostics already computed there). */
+export interface SampleFitDone {
+  readonly type: 'map';
+  readonly id: number;
+  readonly json: string;
+}
+
+export type WorkerRequest = FitRequest | SampleFitRequest;
+
 export type FitReply =
   | { readonly type: 'progress'; readonly id: number; readonly progress: Progress }
   | FitDone
+  | SampleFitDone
   | { readonly type: 'error'; readonly id: number; readonly message: string; readonly kind: string };

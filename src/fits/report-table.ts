@@ -1,6 +1,6 @@
 import type { Diagnostics } from '../engine/map';
 import { getMethod } from '../engine/methods';
-import type { CellOut } from './cells';
+import type { CellOut } from '../input/cells';
 
 /**
  * A fitted map's diagnostics as a two-column table (label, value), as

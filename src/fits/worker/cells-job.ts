@@ -1,8 +1,9 @@
-import type { Progress } from '../engine/map';
-import type { Sample } from '../engine/points';
-import { fitFromInputs, readFit } from '../functions/calls';
-import type { FitDone, FitRequest, PlotSample } from './fit-messages';
-import { PLOT_MAX_ROWS } from './fit-messages';
+import type { Progress } from '../../engine/map';
+import type { Sample } from '../../engine/points';
+import { fitFromInputs } from '../fit-service';
+import { readFit } from '../read-fit';
+import type { FitDone, FitRequest, PlotSample } from './messages';
+import { PLOT_MAX_ROWS } from './messages';
 
 /**
  * One fit as the pane runs it, in the worker or (without workers) on the page:
@@ -13,7 +14,14 @@ import { PLOT_MAX_ROWS } from './fit-messages';
  */
 export async function runFitJob(req: FitRequest, onProgress: (p: Progress) => void, signal?: { readonly aborted: boolean }): Promise<FitDone> {
   const t0 = Date.now();
-  const inputs = readFit('REMAP.FIT', req.source, req.target, req.method, req.settings || null, req.sourceWeights, req.targetWeights);
+  const inputs = readFit('REMAP.FIT', {
+    source: req.source,
+    target: req.target,
+    method: req.method,
+    settings: req.settings || null,
+    sourceWeights: req.sourceWeights,
+    targetWeights: req.targetWeights,
+  });
   const map = await fitFromInputs(inputs, { onProgress, signal });
   const diagnostics = map.diagnostics();
   const json = JSON.stringify(map.toJSON());

@@ -1,21 +1,29 @@
 /**
- * The little XML this add-in writes into the workbook: escaping text and
- * attribute values, and reading back elements of our own simple form. It never
- * evaluates anything and reads only the elements and attributes it wrote.
+ * The XML text this add-in writes: the plots' SVG and the maps it keeps in the
+ * workbook. One escaper for both, and reading back elements of our own simple
+ * form. It never evaluates anything and reads only the elements and attributes
+ * it wrote.
  */
-
-/** Characters XML 1.0 does not allow at all (C0 controls other than tab, LF, CR; U+FFFE, U+FFFF). */
-// eslint-disable-next-line no-control-regex
-const NOT_XML = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]/g;
 
 /**
- * Escapes text for XML content or a double-quoted attribute: & < > " ' and,
- * so attribute values survive normalisation, tab, LF and CR as character
- * references. Characters XML forbids become U+FFFD. O(length).
- * @example escapeXmlText('a<b & "c"') // 'a&lt;b &amp; &quot;c&quot;'
+ * Characters XML 1.0 does not allow at all (section 2.2, Char): C0 controls
+ * other than tab, LF and CR; U+FFFE and U+FFFF; and a surrogate code unit that
+ * is not half of a pair.
  */
-export function escapeXmlText(s: string): string {
-  return s.replace(NOT_XML, '\uFFFD').replace(/[&<>"'\t\n\r]/g, (c) => ESC[c]);
+// eslint-disable-next-line no-control-regex
+const NOT_XML = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\uFFFE\uFFFF]|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g;
+
+/**
+ * Escapes text for XML (or SVG) content or a quoted attribute: & < > " ' as
+ * entities and, so attribute values survive normalisation, tab, LF and CR as
+ * character references. Characters XML forbids become U+FFFD, so a reader sees
+ * that something was there. null and undefined give "". O(length).
+ * @example escapeXml('a<b & "c"') // 'a&lt;b &amp; &quot;c&quot;'
+ */
+export function escapeXml(text: unknown): string {
+  return String(text ?? '')
+    .replace(NOT_XML, '\uFFFD')
+    .replace(/[&<>"'\t\n\r]/g, (c) => ESC[c]);
 }
 
 /**
@@ -41,13 +49,16 @@ export function unescapeXmlText(s: string): string {
   const parts = s.split(/<!\[CDATA\[([\s\S]*?)\]\]>/);
   let out = '';
   for (let i = 0; i < parts.length; i++) {
-    out += i % 2 === 1 ? parts[i] : parts[i].replace(/&(#x[0-9a-fA-F]+|#[0-9]+|[a-z]+);/g, (m, body: string) => {
-      if (body[0] === '#') {
-        const code = body[1] === 'x' ? parseInt(body.slice(2), 16) : parseInt(body.slice(1), 10);
-        return code >= 0 && code <= 0x10ffff ? String.fromCodePoint(code) : m;
-      }
-      return NAMED[body] ?? m;
-    });
+    out +=
+      i % 2 === 1
+        ? parts[i]
+        : parts[i].replace(/&(#x[0-9a-fA-F]+|#[0-9]+|[a-z]+);/g, (m, body: string) => {
+            if (body[0] === '#') {
+              const code = body[1] === 'x' ? parseInt(body.slice(2), 16) : parseInt(body.slice(1), 10);
+              return code >= 0 && code <= 0x10ffff ? String.fromCodePoint(code) : m;
+            }
+            return NAMED[body] ?? m;
+          });
   }
   return out;
 }

@@ -102,7 +102,8 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
   if (rows.length === 0) throw new RemapError(`${fn}: the ${name} range is empty; select the cells holding the ${name} data.`);
   const d = rows[0].length;
   for (let i = 1; i < rows.length; i++) {
-    if (rows[i].length !== d) throw new RemapError(`${fn}: the ${name} range is ragged (row ${i + 1} has ${rows[i].length} cells, row 1 has ${d}); select a rectangular range.`);
+    if (rows[i].length !== d)
+      throw new RemapError(`${fn}: the ${name} range is ragged (row ${i + 1} has ${rows[i].length} cells, row 1 has ${d}); select a rectangular range.`);
   }
   let offset = 0;
   if (isHeaderRow(rows)) {
@@ -118,7 +119,10 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
       throw new RemapError(`${fn}: the ${opts.weightsName ?? name + ' weights'} must be a single column; select one cell per ${name} row.`);
     }
     if (weightRows.length !== rows.length) {
-      throw new RemapError(`${fn}: the ${opts.weightsName ?? name + ' weights'} range has ${weightRows.length} rows but the ${name} has ${rows.length}; select one weight per ${name} row.`);
+      throw new RemapError(
+        `${fn}: the ${opts.weightsName ?? name + ' weights'} range has ${weightRows.length} rows but the ${name} has ${rows.length}; select one ` +
+          `weight per ${name} row.`,
+      );
     }
   }
   const end = Math.max(lastUsedRow(rows), weightRows ? lastUsedRow(weightRows) : 0);
@@ -136,9 +140,14 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
       const k = cellKind(wv);
       if (k === 'number') {
         w = wv as number;
-        if (w < 0) throw new RemapError(`${fn}: the ${opts.weightsName ?? name + ' weights'} in row ${sheetRow} is negative (${w}); weights must be zero or positive: replace it.`);
+        if (w < 0)
+          throw new RemapError(
+            `${fn}: the ${opts.weightsName ?? name + ' weights'} in row ${sheetRow} is negative (${w}); weights must be zero or positive: replace it.`,
+          );
       } else if (k === 'non-finite') {
-        throw new RemapError(`${fn}: the ${opts.weightsName ?? name + ' weights'} in row ${sheetRow} is not a finite number (${describeCell(wv)}); replace it with a number.`);
+        throw new RemapError(
+          `${fn}: the ${opts.weightsName ?? name + ' weights'} in row ${sheetRow} is not a finite number (${describeCell(wv)}); replace it with a number.`,
+        );
       } else {
         rowOk = false;
       }
@@ -146,7 +155,8 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
     if (d === 1) {
       const v = row[0];
       const k = cellKind(v);
-      if (k === 'non-finite') throw new RemapError(`${fn}: the ${name} has a non-finite number (${describeCell(v)}) in row ${sheetRow}; remove it or replace it with a number.`);
+      if (k === 'non-finite')
+        throw new RemapError(`${fn}: the ${name} has a non-finite number (${describeCell(v)}) in row ${sheetRow}; remove it or replace it with a number.`);
       if (k !== 'number' || !rowOk) {
         dropped++;
         continue;
@@ -160,7 +170,10 @@ export function readSample(cells: CellIn, opts: ReadSampleOptions): ReadSample {
     for (let k = 0; k < d; k++) {
       const v = row[k];
       const kind = cellKind(v);
-      if (kind === 'non-finite') throw new RemapError(`${fn}: the ${name} has a non-finite number (${describeCell(v)}) in row ${sheetRow}, column ${k + 1}; remove it or replace it with a number.`);
+      if (kind === 'non-finite')
+        throw new RemapError(
+          `${fn}: the ${name} has a non-finite number (${describeCell(v)}) in row ${sheetRow}, column ${k + 1}; remove it or replace it with a number.`,
+        );
       if (kind !== 'number') allNumbers = false;
     }
     if (!allNumbers) {
@@ -310,7 +323,10 @@ function finiteOrError(v: number): CellOut {
 }
 
 function notFinite(v: number): CellError {
-  return new CellError('num', `The mapped value is not a finite number (${v}): it overflows. Rescale the data, or use tails=clamp for values far outside the fitted range.`);
+  return new CellError(
+    'num',
+    `The mapped value is not a finite number (${v}): it overflows. Rescale the data, or use tails=clamp for values far outside the fitted range.`,
+  );
 }
 
 /**

@@ -1,5 +1,5 @@
-import { CellError } from '../../src/functions/cells';
-import { asRows, isOmitted, readNumbers, readSample, readSettings, readText, readValues, writeValues } from '../../src/functions/coerce';
+import { CellError } from '../../src/input/cells';
+import { asRows, isOmitted, readNumbers, readSample, readSettings, readText, readValues, writeValues } from '../../src/input/coerce';
 
 const fn = 'REMAP.TEST';
 const deepFreeze = (rows: unknown[][]): unknown[][] => Object.freeze(rows.map((r) => Object.freeze(r))) as unknown[][];
@@ -28,7 +28,14 @@ describe('readSample: the input rules of the README', () => {
   });
 
   test('a first row of text above numbers is a header naming the columns, not a dropped row', () => {
-    const r = readSample([['income', 'spend'], [1, 2], [3, 4]], { name: 'target', fn });
+    const r = readSample(
+      [
+        ['income', 'spend'],
+        [1, 2],
+        [3, 4],
+      ],
+      { name: 'target', fn },
+    );
     expect(r.columns).toEqual(['income', 'spend']);
     expect(r.sample.n).toBe(2);
     expect(r.dropped).toBe(0);
@@ -84,7 +91,14 @@ describe('readSample: the input rules of the README', () => {
 
 describe('readValues / writeValues keep the shape of the values', () => {
   test('one column: every cell is a value; blanks stay blank; text becomes #VALUE! in place', () => {
-    const { points, layout } = readValues([[1, null], ['x', 4]], 1, fn);
+    const { points, layout } = readValues(
+      [
+        [1, null],
+        ['x', 4],
+      ],
+      1,
+      fn,
+    );
     expect(Array.from(points.data)).toEqual([1, 4]);
     const out = writeValues({ n: 2, d: 1, data: Float64Array.from([10, 40]) }, layout);
     expect(out[0][0]).toBe(10);
@@ -95,7 +109,16 @@ describe('readValues / writeValues keep the shape of the values', () => {
   });
 
   test('several columns: one point per row; a blank row stays blank; a partly blank row is #VALUE!', () => {
-    const { points, layout } = readValues([[1, 2], [null, null], [3, null], [5, 6]], 2, fn);
+    const { points, layout } = readValues(
+      [
+        [1, 2],
+        [null, null],
+        [3, null],
+        [5, 6],
+      ],
+      2,
+      fn,
+    );
     expect(points.n).toBe(2);
     const out = writeValues({ n: 2, d: 2, data: Float64Array.from([10, 20, 50, 60]) }, layout);
     expect(out[0]).toEqual([10, 20]);
@@ -112,7 +135,15 @@ describe('readValues / writeValues keep the shape of the values', () => {
 describe('settings, text and numbers', () => {
   test('settings as one text cell or as a two-column range', () => {
     expect({ ...readSettings('seed=7; tails=linear', fn) }).toEqual({ seed: '7', tails: 'linear' });
-    expect({ ...readSettings([['seed', 7], ['eps', 0.1]], fn) }).toEqual({ seed: 7, eps: 0.1 });
+    expect({
+      ...readSettings(
+        [
+          ['seed', 7],
+          ['eps', 0.1],
+        ],
+        fn,
+      ),
+    }).toEqual({ seed: 7, eps: 0.1 });
     expect({ ...readSettings(null, fn) }).toEqual({});
     expect(() => readSettings([[1, 2, 3]], fn)).toThrow(/two columns/);
     expect(() => readSettings('seed', fn)).toThrow(/name=value/);
@@ -125,7 +156,18 @@ describe('settings, text and numbers', () => {
   });
 
   test('readNumbers accepts only numbers and names the bad cell', () => {
-    expect(Array.from(readNumbers([[1, 2], [3, 4]], 'cov1', fn).data)).toEqual([1, 2, 3, 4]);
+    expect(
+      Array.from(
+        readNumbers(
+          [
+            [1, 2],
+            [3, 4],
+          ],
+          'cov1',
+          fn,
+        ).data,
+      ),
+    ).toEqual([1, 2, 3, 4]);
     expect(() => readNumbers([[1, null]], 'cov1', fn)).toThrow(/row 1, column 2/);
   });
 

@@ -2,6 +2,8 @@ import { RemapError } from '../engine/errors';
 import type { TransportMap } from '../engine/map';
 import { parseMapJSON } from '../engine/map-json';
 import { restoreMap } from '../engine/methods';
+import { isHandle, isProgressText } from './handles';
+import { currentKeeper, type KeptInfo } from './keeper';
 
 /**
  * Fitted maps by handle, for this session. A handle is text derived from the
@@ -11,33 +13,9 @@ import { restoreMap } from '../engine/methods';
  * add-in): a `Keeper` set by the host is asked for a handle this session lacks.
  */
 
-export interface Keeper {
-  /** The map's JSON text for `handle`, or null if none is kept. May throw (or reject) when a kept copy is damaged. */
-  load(handle: string): string | null | Promise<string | null>;
-  /** Keeps `json` under `handle` (may be asynchronous; failures are reported, not thrown). */
-  save(handle: string, json: string, info?: KeptInfo): void | Promise<void>;
-}
-
-/** What a keeper may record beside a map, for the pane's list of maps. */
-export interface KeptInfo {
-  /** The cell whose REMAP.FIT formula made the map, e.g. "Sheet1!F2", when known. */
-  readonly cell?: string;
-}
-
 const MAX_MAPS = 64;
 const maps = new Map<string, TransportMap>();
 const inflight = new Map<string, Promise<TransportMap>>();
-let keeper: Keeper | null = null;
-
-/** Sets (or clears) where maps are kept beyond this session. */
-export function setKeeper(k: Keeper | null): void {
-  keeper = k;
-}
-
-/** The keeper set by the host, or null (tests, the command line). */
-export function currentKeeper(): Keeper | null {
-  return keeper;
-}
 
 /**
  * Remembers a map fitted elsewhere (the pane's background fit) and keeps it
@@ -47,25 +25,7 @@ export function currentKeeper(): Keeper | null {
  */
 export async function rememberAndKeep(handle: string, map: TransportMap, info?: KeptInfo): Promise<void> {
   remember(handle, map);
-  if (keeper) await keeper.save(handle, JSON.stringify(map.toJSON()), info);
-}
-
-/** Builds a handle from its parts. */
-export function makeHandle(method: string, n: number, d: number, hash: string): string {
-  return `remap:${method}:${n}x${d}:${hash}`;
-}
-
-/** True when text looks like a handle this product writes. */
-export function isHandle(text: string): boolean {
-  return /^remap:[a-z-]+:\d+x\d+:[0-9a-f]+$/.test(text.trim());
-}
-
-/** The text a streaming REMAP.FIT cell shows while it works starts with this. */
-export const PROGRESS_PREFIX = 'fitting ';
-
-/** True when text is a streaming REMAP.FIT cell's progress text rather than a handle. */
-export function isProgressText(text: string): boolean {
-  return text.startsWith(PROGRESS_PREFIX);
+  await currentKeeper()?.save(handle, JSON.stringify(map.toJSON()), info);
 }
 
 /** Remembers a fitted map under its handle (most recently used last; the oldest is dropped past 64). */
@@ -113,7 +73,7 @@ export function recallOrFit(handle: string, fit: () => TransportMap | Promise<Tr
   if (running) return running;
   let kept: string | null | Promise<string | null> = null;
   try {
-    kept = keeper ? keeper.load(handle) : null;
+    kept = currentKeeper()?.load(handle) ?? null;
   } catch {
     kept = null; // a damaged kept copy: fit again, and the new copy replaces it
   }
@@ -156,6 +116,7 @@ export function running(handle: string): Promise<TransportMap> | undefined {
 
 function store(handle: string, m: TransportMap, info?: KeptInfo): void {
   remember(handle, m);
+  const keeper = currentKeeper();
   if (keeper) {
     try {
       const r = keeper.save(handle, JSON.stringify(m.toJSON()), info);
@@ -185,8 +146,12 @@ export function resolveMap(model: string, fn: string): TransportMap | Promise<Tr
   const running = inflight.get(text);
   if (running) return running;
   const missing = (): never => {
-    throw new RemapError(`${fn}: no map with handle ${text} is open; recalculate the REMAP.FIT cell that made it, or load its saved JSON with REMAP.LOAD.`, 'na');
+    throw new RemapError(
+      `${fn}: no map with handle ${text} is open; recalculate the REMAP.FIT cell that made it, or load its saved JSON with REMAP.LOAD.`,
+      'na',
+    );
   };
+  const keeper = currentKeeper();
   if (!keeper) return missing();
   const kept = keeper.load(text);
   const finish = (json: string | null): TransportMap => {
