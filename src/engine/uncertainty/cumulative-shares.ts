@@ -105,13 +105,15 @@ export function cumulateWeights(w: Float64Array, c: Float64Array): boolean {
 /**
  * Cumulative counts per distinct value from counts per cell: cells are the
  * sorted rows (ends[k] = rows with value at most value k, see `SortedSide`) or,
- * when ends is null, the distinct values themselves. O(cells).
+ * when ends is null, the distinct values themselves. The counts must add up
+ * to less than 2^31 (one replicate's draws). O(cells).
  */
 export function cumulateCounts(counts: Int32Array, ends: Int32Array | null, c: Float64Array): void {
+  // Whole numbers below 2^31 (the draws of one replicate): an integer running total is exact and adds faster than a double one.
   let total = 0;
   if (ends === null) {
     for (let k = 0; k < c.length; k++) {
-      total += counts[k];
+      total = (total + counts[k]) | 0;
       c[k] = total;
     }
     return;
@@ -119,7 +121,7 @@ export function cumulateCounts(counts: Int32Array, ends: Int32Array | null, c: F
   let r = 0;
   for (let k = 0; k < c.length; k++) {
     const e = ends[k];
-    for (; r < e; r++) total += counts[r];
+    for (; r < e; r++) total = (total + counts[r]) | 0;
     c[k] = total;
   }
 }

@@ -94,6 +94,23 @@ describe('the fast refits of bootstrap replicates', () => {
     }
   });
 
+  test('source values one unit in the last place apart: the quantile reader declines, and the fallback gives the full fit', () => {
+    // Between values 2^-52 apart, knots interpolated at the target's positions round onto each other and the knot
+    // builder drops them; the reader cannot follow that and must say so (design choice: refit then).
+    const e = 2 ** -52;
+    const src = { n: 6, d: 1, data: Float64Array.from({ length: 6 }, (_, i) => 1 + i * e), weights: null };
+    const tgt = { n: 17, d: 1, data: Float64Array.from({ length: 17 }, (_, i) => 10 + i), weights: null };
+    const x = column([1, 1 + e, 1 + 2 * e, 1 + 3 * e, 1 + 5 * e, 0.5, 2]);
+    const fitter = new ReplicateFitter('quantile', src, tgt, x, { tails: 'linear' });
+    const { sorted, order } = sortWithOrder(x.data);
+    const reader = new QuantileAtValues(fitter.sides!.source.distinct, fitter.sides!.target.distinct, sorted, order);
+    const ones = (k: number) => new Float64Array(k).fill(1);
+    expect(reader.map(running(ones(6)), running(ones(17)), 'linear', new Float64Array(x.n))).toBe(false);
+    const out = new Float64Array(x.n);
+    fitter.mapWith(ones(6), ones(17), out);
+    expectSame(out, fitMapSync('quantile', src, tgt, { tails: 'linear' }).apply(x).data);
+  });
+
   test('linear: the full fit on the resampled rows (two columns, standardised and raw units, with a ridge)', () => {
     const r = new Random(4);
     for (const settings of [{}, { units: 'raw' }, { ridge: 0.01 }]) {
