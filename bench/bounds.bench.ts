@@ -3,7 +3,7 @@
  * bootstrap replicates of a 1-D quantile map with n = m = 100,000 in <= 5 s,
  * bounding 1,000 values (the source's quantiles at 0.05 %, 0.15 %, ..., 99.95 %).
  * Printed beside it, in the same run: one fit of the map on the full samples
- * (so the cost reads as "fits' time"), the general refit of a replicate (the
+ * (the median of five; so the cost reads as "fits' time"), the general refit of a replicate (the
  * method's own column builder, as before the fast readers) timed on 20
  * replicates, and the load average. Seeded data.
  */
@@ -29,9 +29,14 @@ for (const method of ['quantile', 'step'] as const) {
   // Warm up both paths once, then time.
   fitMapSync(method, S, T).apply(values);
   bootstrapBounds(method, S, T, values, { replicates: 20, seed: 2 });
-  const f0 = performance.now();
-  fitMapSync(method, S, T).apply(values);
-  const fit = performance.now() - f0;
+  // One full fit (fit and map the values): the median of five, the machine being shared.
+  const fits: number[] = [];
+  for (let k = 0; k < 5; k++) {
+    const f0 = performance.now();
+    fitMapSync(method, S, T).apply(values);
+    fits.push(performance.now() - f0);
+  }
+  const fit = fits.sort((a, b) => a - b)[2];
   const loadBefore = load();
   const t0 = performance.now();
   const b = bootstrapBounds(method, S, T, values, { replicates: 1000, seed: 1 });

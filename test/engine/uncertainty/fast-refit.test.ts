@@ -94,6 +94,32 @@ describe('the fast refits of bootstrap replicates', () => {
     }
   });
 
+  test.each(['quantile', 'step'] as const)('%s with replicate weights (fractions, some zero): the full fit with those weights', (method) => {
+    const r = new Random(77);
+    for (let trial = 0; trial < 30; trial++) {
+      const src = draw(r, 5 + Math.floor(r.uniform() * 25), 2, 5, trial % 2 ? 0.5 : 0, false);
+      const tgt = draw(r, 5 + Math.floor(r.uniform() * 25), 3, 20, trial % 2 ? 0.5 : 0, false);
+      const x = column([0, 3, 4.4, 5, 5.5, 7, 12]);
+      const fitter = new ReplicateFitter(method, src, tgt, x, { tails: 'linear' });
+      const weights = (n: number) => Float64Array.from({ length: n }, () => (r.uniform() < 0.2 ? 0 : 0.1 + 3 * r.uniform()));
+      const ws = weights(src.n);
+      const wt = weights(tgt.n);
+      let expected: Float64Array | null = null;
+      try {
+        expected = fitMapSync(method, { ...src, weights: ws }, { ...tgt, weights: wt }, { tails: 'linear' }).apply(x).data;
+      } catch {
+        expected = null;
+      }
+      const out = new Float64Array(x.n);
+      const run = () => fitter.mapWith(fitter.perUnit('source', ws), fitter.perUnit('target', wt), out);
+      if (expected === null) expect(run).toThrow();
+      else {
+        run();
+        expectSame(out, expected);
+      }
+    }
+  });
+
   test('source values one unit in the last place apart: the quantile reader declines, and the fallback gives the full fit', () => {
     // Between values 2^-52 apart, knots interpolated at the target's positions round onto each other and the knot
     // builder drops them; the reader cannot follow that and must say so (design choice: refit then).
