@@ -1,9 +1,7 @@
 import { RemapError } from '../errors';
 import type { Warning } from '../map';
 import type { Points, Sample } from '../points';
-import { Random } from '../stats/random';
-import { kishRows } from '../groups/effective-rows';
-import { AliasSampler } from './alias-sampler';
+import { bootstrapReplicates } from './bootstrap-replicates';
 import type { MappedBounds } from './mapped-bounds';
 import { percentileOf, prepareBounds } from './prepare-bounds';
 
@@ -30,10 +28,14 @@ export interface BootstrapOptions {
  * bounds as they widen a survey's variance; this treats the rows as drawn
  * independently and ignores clusters and strata, for which the survey's
  * replicate weights (`replicateBounds`) are the right tool.
- * For the 1-D methods each replicate is O(n + m) with no sort: both samples
- * are sorted once and a replicate is a vector of multinomial counts on the
- * sorted values (alias method). Linear refits the moments, O((n + m) d^2).
- * Cost: O(R (n + m + v)) for 1-D, O(R ((n + m) d^2 + v d^2)) linear, plus O(R v log R) for the percentiles.
+ * For the 1-D methods both samples are sorted once and a replicate is a
+ * vector of multinomial counts on the sorted values (`bootstrapReplicates`),
+ * added up into cumulative weights; quantile and step then read the refitted
+ * map at the values only (no sort, no knots: `QuantileAtValues`,
+ * `StepAtValues`), with the numbers of a full refit on the resampled rows.
+ * Linear refits the moments from the counts (`LinearRefit`).
+ * Cost: O(R (n + m + v log m)) for 1-D, O(R ((n + m) d^2 + d^3 + v d^2)) linear, plus O(R v log R) for the percentiles.
+ * (R = 199 or 999 puts the 95 % ends exactly on order statistics, since (R + 1) 0.025 is then whole.)
  * @param method quantile, step, ordinal or linear.
  * @param values the values whose mapped value is bounded (same columns as the samples).
  * @throws RemapError for another method, bad samples, values or options, or too many values x replicates.
@@ -48,31 +50,7 @@ export function bootstrapBounds(method: string, source: Sample, target: Sample, 
   const level = options.level ?? 0.95;
   const prep = prepareBounds(method, source, target, values, options.settings ?? {}, level, R, fn);
   const { fitter, estimate, m } = prep;
-  const random = new Random(seed);
-  const sides = (['source', 'target'] as const).map((side) => {
-    const s = side === 'source' ? source : target;
-    const full = fitter.fullWeights(side);
-    const draws = s.weights ? Math.max(2, Math.round(kishRows(s.n, s.weights))) : s.n;
-    const sampler = s.weights ? new AliasSampler(full) : AliasSampler.forRows(fitter.unitOfRow(side), full.length);
-    return { sampler, counts: new Float64Array(full.length), draws };
-  });
-  const reps = new Float64Array(R * m);
-  const out = new Float64Array(m);
-  let failed = 0;
-  for (let r = 0; r < R; r++) {
-    for (const s of sides) {
-      s.counts.fill(0);
-      s.sampler.counts(random, s.draws, s.counts);
-    }
-    try {
-      fitter.mapWith(sides[0].counts, sides[1].counts, out);
-      reps.set(out, r * m);
-    } catch (e) {
-      if (!(e instanceof RemapError)) throw e;
-      reps.fill(NaN, r * m, (r + 1) * m);
-      failed++;
-    }
-  }
+  const { reps, failed } = bootstrapReplicates(fitter, source, target, R, m, seed, 'fast');
   if (failed > R / 2) throw new RemapError(`${fn}: ${failed} of ${R} replicates could not be fitted (too few distinct values in a resample); give larger samples.`);
   const lower = new Float64Array(m);
   const upper = new Float64Array(m);

@@ -104,8 +104,14 @@ describe('bounds on mapped values', () => {
     for (let j = 0; j < 3; j++) expect(a.lower[j]).toBeLessThan(a.upper[j]);
   });
 
+  // 199 bootstrap replicates per interval: (199 + 1) x 0.025 = 5 is a whole number, so the percentile ends are exactly the 5th
+  // and 195th of the 199 replicate values, and a further draw from the same bootstrap distribution falls between them with
+  // probability (195 - 5) / (199 + 1) = 0.95 exactly, whatever that distribution (Source: the distribution-free coverage of
+  // order statistics, e.g. David & Nagaraja, "Order Statistics", 3rd ed. 2003, sec. 7.2, from memory). Finite R then adds
+  // spread to the ends but no bias to the coverage, which is why R with (R + 1) alpha whole is the usual choice (Source:
+  // Davison & Hinkley 1997, sec. 2.5 and 5.2; Hall, Ann. Statist. 14, 1986, on the number of bootstrap simulations; from memory).
   test('coverage: the 95 % percentile bootstrap covers the population quantile map in 93-97 % of 400 runs', () => {
-    const cov = coverage('quantile', 200, 200, 400);
+    const cov = coverage('quantile', 200, 199, 400);
     // Source: the nominal level 95 %; the 93-97 % band allows about 1.8 binomial standard errors for 400 runs (design choice).
     for (const c of cov) {
       expect(c).toBeGreaterThanOrEqual(0.93);
@@ -114,7 +120,7 @@ describe('bounds on mapped values', () => {
   });
 
   test('coverage: the 95 % percentile bootstrap covers the population linear map in 93-97 % of 400 runs', () => {
-    const cov = coverage('linear', 200, 200, 400);
+    const cov = coverage('linear', 200, 199, 400);
     for (const c of cov) {
       expect(c).toBeGreaterThanOrEqual(0.93);
       expect(c).toBeLessThanOrEqual(0.97);
