@@ -13,7 +13,7 @@ const prettierOff = require('eslint-config-prettier');
 const MAX_LEN = ['error', { code: 160, ignoreUrls: true, ignoreRegExpLiterals: true, ignoreStrings: true, ignoreTemplateLiterals: true }];
 
 module.exports = tseslint.config(
-  { ignores: ['dist/**', 'dist-cli/**', 'docs/**', 'coverage/**', 'demo-output/**', 'screenshots/**', 'node_modules/**'] },
+  { ignores: ['dist/**', 'build/**', 'docs/**', 'coverage/**', 'demo-output/**', 'screenshots/**', 'node_modules/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   prettierOff,
