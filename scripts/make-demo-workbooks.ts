@@ -23,6 +23,8 @@ export interface DemoWorkbook {
   readonly title: string;
   readonly build: () => Workbook;
   readonly plots: readonly PlotSpec[];
+  /** Ranges every fitted map of the workbook is compared on (the same rows for all), when the maps should be put side by side. */
+  readonly compareOn?: { readonly source: string; readonly target: string };
 }
 
 /** The gradient-net settings the demo uses: modest, so the whole demo stays near a minute on 2 cores. */
@@ -92,8 +94,8 @@ function surveyWaves(): Workbook {
   const e1 = n1 + 1;
   const e2 = n2 + 1;
   const wb = newWorkbook();
-  about(wb, 'Harbourside Household Panel: putting wave 2 on wave 1\'s scale (invented data)', [
-    'The Harbourside Household Panel is an invented survey. Wave 2 used a new questionnaire: income was asked net of a levy, so it came out lower and more compressed, and the 0-10 satisfaction question got friendlier wording, so scores drifted up. The households are different people in each wave, so there are no pairs to match: only the two distributions.',
+  about(wb, 'Harbourside Living Conditions Survey (two independent waves): putting wave 2 on wave 1\'s scale (invented data)', [
+    'The Harbourside Living Conditions Survey is an invented survey; each wave is an independent sample of households (a repeated cross-section, not a panel). Wave 2 used a new questionnaire: income was asked net of a levy, so it came out lower and more compressed, and the 0-10 satisfaction question got friendlier wording, so scores drifted up. The households are different people in each wave, so there are no pairs to match: only the two distributions.',
     'Sheet Wave2, column F, holds each wave-2 income on wave 1\'s scale: the continuous quantile map, with both waves\' survey weights honoured. A household at wave 2\'s weighted 30th percentile gets wave 1\'s weighted 30th-percentile income:',
     `=REMAP.VALUES(B2:B${e2}, B2:B${e2}, Wave1!B2:B${e1}, "quantile", D2:D${e2}, Wave1!D2:D${e1})`,
     'Column G does the same for the satisfaction score with the ordinal method (equipercentile equating of whole-number scores, Kolen & Brennan), again with the weights:',
@@ -273,7 +275,7 @@ function whatIf(): Workbook {
 export const DEMO_WORKBOOKS: readonly DemoWorkbook[] = [
   {
     file: 'survey-waves.xlsx',
-    title: 'Survey waves (Harbourside Household Panel)',
+    title: 'Survey waves (Harbourside Living Conditions Survey, two independent waves)',
     build: surveyWaves,
     plots: [
       {
@@ -316,6 +318,7 @@ export const DEMO_WORKBOOKS: readonly DemoWorkbook[] = [
     file: 'scenario-alignment.xlsx',
     title: 'Scenario alignment (model -> reference, 3 risk factors)',
     build: scenarioAlignment,
+    compareOn: { source: 'Model!A2:C5001', target: 'Reference!A2:C5001' },
     plots: [
       {
         file: 'scenarios-before-scatter.svg',

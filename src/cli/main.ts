@@ -7,6 +7,7 @@ import { parseSettingsText } from '../engine/settings';
 import { CellError, type CellIn } from '../functions/cells';
 import { readSample, readValues, writeValues, type ReadSample } from '../functions/coerce';
 import { csvCell, formatCSV, parseCSV } from './csv';
+import { CommandUsageError, MORE_COMMANDS, runMoreCommand } from './more-commands';
 
 /**
  * The `remap` command: CSV in, CSV or JSON out, through the same coercion
@@ -37,6 +38,7 @@ const COMMANDS: Record<string, { flags: string[]; summary: string }> = {
   },
   report: { flags: ['model'], summary: 'remap report --model model.json' },
   methods: { flags: [], summary: 'remap methods' },
+  ...MORE_COMMANDS,
 };
 
 function usage(): string {
@@ -300,9 +302,10 @@ export async function main(argv: readonly string[], io: CliIO): Promise<number> 
         return 0;
       }
     }
+    if (command in MORE_COMMANDS) return await runMoreCommand(command, flags, io);
     throw new UsageError(`unknown command "${command}"`);
   } catch (e) {
-    if (e instanceof UsageError) {
+    if (e instanceof UsageError || e instanceof CommandUsageError) {
       if (e.message) {
         io.stderr(`remap: ${oneLine(e.message)}\n`);
         return 2;

@@ -34,8 +34,6 @@ export function reportTable(diag: Diagnostics): [string, CellOut][] {
     add('Iterations', diag.convergence.iterations);
     add(`Final ${diag.convergence.criterion}`, diag.convergence.finalError);
   }
-  add('Rows mapped so far', diag.applied.rows);
-  add('of which outside the fitted range', diag.applied.outside);
   for (const [k, v] of Object.entries(diag.settings)) add(`Setting: ${k}`, v);
   if (diag.warnings.length === 0) add('Warnings', 'none');
   for (const w of diag.warnings) add(`Warning (${w.code})`, `${w.message} ${w.action}`);

@@ -1,6 +1,8 @@
 /* Shared generators and checks for the property-based tests in test/fuzz (fast-check 4).
  * Sizes are bounded so that no property can run long; every property also stops
- * after its time limit (fast-check's interruptAfterTimeLimit). */
+ * after its time limit (fast-check's interruptAfterTimeLimit), and then fails
+ * unless it ran at least its floor of cases (assertProperty): a slow machine
+ * must not pass a property it barely exercised. */
 import fc from 'fast-check';
 
 /** The seed every property starts from; FUZZ_SEED=<n> explores other cases. */
@@ -12,6 +14,22 @@ export const RUNS_FACTOR = Number(process.env.FUZZ_RUNS ?? 1);
 /** Options for fc.assert: fixed seed, run count, time limit. */
 export function options(numRuns: number, timeLimitMs: number): fc.Parameters<unknown> {
   return { seed: FUZZ_SEED, numRuns: Math.max(1, Math.round(numRuns * RUNS_FACTOR)), interruptAfterTimeLimit: timeLimitMs * Math.max(1, RUNS_FACTOR), endOnFailure: true };
+}
+
+/**
+ * Runs a property like fc.assert with `options(numRuns, timeLimitMs)`, and
+ * fails when the time limit stopped it before `minRuns` cases ran (default a
+ * quarter of the scaled run count), saying how many ran. A counterexample is
+ * reported as fc.assert reports it (no shrinking: endOnFailure).
+ */
+export async function assertProperty<T>(property: fc.IAsyncProperty<T> | fc.IProperty<T>, numRuns: number, timeLimitMs: number, minRuns?: number): Promise<void> {
+  const opts = options(numRuns, timeLimitMs) as fc.Parameters<T>;
+  const out = await fc.check(property as fc.IAsyncProperty<T>, opts);
+  if (out.failed) throw new Error(await fc.asyncDefaultReportMessage(out));
+  const floor = minRuns ?? Math.max(1, Math.ceil((opts.numRuns ?? numRuns) / 4));
+  if (out.numRuns < floor) {
+    throw new Error(`The property ran only ${out.numRuns} of ${opts.numRuns} cases before its time limit of ${opts.interruptAfterTimeLimit} ms (floor ${floor}); the machine is too busy or the property too slow. Rerun, or raise the time limit.`);
+  }
 }
 
 /** A finite number of any size from 1e-300 to 1e300 (and 0, -0, whole numbers). */

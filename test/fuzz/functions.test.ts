@@ -14,7 +14,7 @@ import * as F from '../../src/functions/functions';
 import { forgetAll, isHandle } from '../../src/functions/store';
 import { installCustomFunctionsStub } from '../helpers/custom-functions-stub';
 import { shape } from './arbitraries';
-import { cleanRange, deepFreeze, errorCell, junkCell, oddMethod, oddSettings, options, range, sameDeep, snapshot, weights } from './arbitraries';
+import { cleanRange, deepFreeze, errorCell, junkCell, oddMethod, oddSettings, assertProperty, range, sameDeep, snapshot, weights } from './arbitraries';
 import { checkGrid, checkNumber, checkSheetError, outcome, vagueMessages, type Outcome } from './outcomes';
 
 installCustomFunctionsStub();
@@ -107,7 +107,7 @@ describe('worksheet functions under hostile input', () => {
         // weights of the sample's own height most of the time
         fc.record({ sw: fc.oneof(fc.constant(r.sw), weightsArg(r.source.length)), tw: fc.oneof(fc.constant(r.tw), weightsArg(r.target.length)) }).map((w) => ({ ...r, ...w })),
       );
-    await fc.assert(
+    await assertProperty(
       fc.asyncProperty(arb, async (r) => {
         cases++;
         switch (r.which) {
@@ -121,7 +121,7 @@ describe('worksheet functions under hostile input', () => {
             return judge(await frozenCall([r.source, r.target, r.output], F.pairs as never), 'PAIRS', 'pairs');
         }
       }),
-      options(1200, 15_000),
+      1200, 15_000,
     );
   });
 
@@ -138,7 +138,7 @@ describe('worksheet functions under hostile input', () => {
         values: cleanRange(o.d, 0, 5),
       }),
     );
-    await fc.assert(
+    await assertProperty(
       fc.asyncProperty(arb, async ({ o, source, target, values }) => {
         cases++;
         const vals = o.method === 'pairs' ? source : values;
@@ -152,7 +152,7 @@ describe('worksheet functions under hostile input', () => {
           if (g.length !== vals.length || g.some((row) => row.length !== o.d)) throw new Error('VALUES changed the shape of values');
         }
       }),
-      options(600, 10_000),
+      600, 10_000,
     );
   });
 
@@ -170,12 +170,12 @@ describe('worksheet functions under hostile input', () => {
         c2: fc.oneof({ arbitrary: block(d, d).map((m) => m.map((row, i) => row.map((v, j) => (i === j ? Math.abs(Number(v)) || 1 : 0)))), weight: 6 }, { arbitrary: block(d, d), weight: 1 }),
       }),
     );
-    await fc.assert(
+    await assertProperty(
       fc.asyncProperty(arb, async ({ m1, c1, m2, c2 }) => {
         cases++;
         judge(await frozenCall([m1, c1, m2, c2], F.gausscost as never), 'GAUSSCOST', 'number');
       }),
-      options(600, 6_000),
+      600, 6_000,
     );
   });
 
@@ -189,7 +189,7 @@ describe('worksheet functions under hostile input', () => {
       junk: fc.oneof(junkCell, fc.string({ maxLength: 20 }), fc.constant([[null]])),
       cut: fc.nat(),
     }).chain((o) => fc.record({ o: fc.constant(o), source: cleanRange(o.d, 4, 10), target: cleanRange(o.d, 4, 10), values: range(o.d, { maxRows: 6 }) }));
-    await fc.assert(
+    await assertProperty(
       fc.asyncProperty(arb, async ({ o, source, target, values }) => {
         cases++;
         const target2 = o.method === 'pairs' ? source.map((r) => r.map((v) => v * 2 + 1)) : target;
@@ -221,7 +221,7 @@ describe('worksheet functions under hostile input', () => {
             return judge(await frozenCall([model], F.load as never), 'LOAD', 'handle');
         }
       }),
-      options(600, 12_000),
+      600, 12_000,
     );
   });
 
@@ -241,7 +241,7 @@ describe('worksheet functions under hostile input', () => {
         sw: weights(12),
       }),
     );
-    await fc.assert(
+    await assertProperty(
       fc.asyncProperty(arb, async ({ o, source, target, values, sw }) => {
         cases++;
         const settings = SLOW_SETTINGS[o.method];
@@ -249,7 +249,7 @@ describe('worksheet functions under hostile input', () => {
         if (o.which === 'values') judge(await frozenCall([values, source, target, o.method, w, undefined, settings], F.values as never), `VALUES (${o.method})`, 'grid');
         else judge(await frozenCall([source, target, o.method, w, undefined, settings], F.cost as never), `COST (${o.method})`, 'number');
       }),
-      options(30, 20_000),
+      30, 20_000,
     );
   });
 });

@@ -15,7 +15,7 @@ import { readValues, writeValues } from '../../src/functions/coerce';
 import { fitMap, listMethods, restoreMap } from '../../src/engine/methods';
 import { sample, points } from '../../src/engine/points';
 import { reportTable } from '../../src/functions/report';
-import { options } from './arbitraries';
+import { assertProperty } from './arbitraries';
 
 const SMALL: Record<string, Record<string, unknown>> = { entropic: { max_iterations: 50 }, 'gradient-net': { steps: 2, hidden: 2, batch: 0, backend: 'cpu' } };
 const PROTO_KEYS = Object.getOwnPropertyNames(Object.prototype).sort().join(',');
@@ -168,7 +168,7 @@ function checkFinite(mapped: Mapped, what: string, text: string): void {
 
 describe('saved maps under mutation', () => {
   test('every mutated map JSON is refused with a RemapError or loads to a map whose outputs are finite', async () => {
-    await fc.assert(
+    await assertProperty(
       fc.asyncProperty(fc.nat(), mutation, async (which, m) => {
         cases++;
         const base = saved[which % saved.length];
@@ -200,7 +200,7 @@ describe('saved maps under mutation', () => {
           map.dispose();
         }
       }),
-      options(3000, 15_000),
+      3000, 15_000,
     );
   });
 });

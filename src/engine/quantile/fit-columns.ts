@@ -1,12 +1,14 @@
 import { RemapError } from '../errors';
-import type { MapHeader } from '../base';
+import { fitHeader, jsonHeader, type MapHeader } from '../base';
 import { sizeWarnings } from '../base';
 import type { CostReport, FitContext, FitRecord, MapJSON, MethodName, Warning } from '../map';
 import { columnOf, type Sample } from '../points';
-import type { Settings } from '../settings';
+import { TAILS_SETTING, type Settings } from '../settings';
+import { outsideBothTails } from '../outside';
 import type { MethodSpec } from '../method';
 import { sortedCopy, sortWithOrder, sortWithWeights, type SortedWithOrder } from '../stats/sort';
 import { transportCosts1d } from '../stats/wasserstein-1d';
+import { kishEffectiveSize } from '../stats/effective-size';
 import { weightedCdfSorted, type WeightedCdf } from '../stats/weighted-cdf';
 import type { ColumnMap, FittedSource } from './column-map';
 import type { Tails } from './one-way-map';
@@ -39,14 +41,7 @@ export interface ColumnRecipe {
  */
 export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sample, settings: Settings, ctx: FitContext): OneColumnMap {
   const d = source.d;
-  const header: MapHeader = {
-    method: recipe.method,
-    d,
-    settings,
-    columns: ctx.columns ?? null,
-    n: { source: source.n, target: target.n },
-    dropped: ctx.dropped ?? { source: 0, target: 0 },
-  };
+  const header = fitHeader(recipe.method, source, target, settings, ctx);
   const columns: ColumnMap[] = [];
   const w2: number[] = [];
   let w1 = 0;
@@ -66,7 +61,8 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
     if (slope < minSlope) minSlope = slope;
     if (recipe.warnTies && s.tiedRows > 0) tied.push(`${s.tiedRows} of ${s.rows} in ${columnName(ctx, k)}`);
   }
-  const warnings: Warning[] = sizeWarnings(header);
+  const effectiveSize = { source: kishEffectiveSize(source.weights, source.n), target: kishEffectiveSize(target.weights, target.n) };
+  const warnings: Warning[] = sizeWarnings(header, effectiveSize);
   if (d > 1) {
     warnings.push({
       code: 'marginals-only',
@@ -97,6 +93,8 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
           w2Squared: total,
           w2: Math.sqrt(total),
           w1,
+          bound: 'exact',
+          label: 'squared W2, exact',
           note: 'Exact squared 2-Wasserstein distance (and W1) between the source and target samples, from their quantile functions.',
         }
       : {
@@ -104,9 +102,11 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
           w2Squared: total,
           w2: Math.sqrt(total),
           perColumn: w2,
-          note: `Sum over the ${d} columns of the exact squared 2-Wasserstein distance between source and target columns; it ignores dependence between columns.`,
+          bound: 'lower',
+          label: 'squared W2, lower bound (sum of per-column costs; dependence ignored)',
+          note: `Sum over the ${d} columns of the exact squared 2-Wasserstein distance between source and target columns: a lower bound on the joint squared W2, since the joint optimal coupling's column marginals are couplings of the columns, so the joint cost is at least the sum of the per-column costs; the gap grows with the difference in dependence between columns.`,
         };
-  const fitted: FitRecord = { cost, minJacobianEigenvalue: minSlope, warnings };
+  const fitted: FitRecord = { cost, minJacobianEigenvalue: minSlope, effectiveSize, warnings };
   return new OneColumnMap(header, fitted, columns);
 }
 
@@ -124,14 +124,7 @@ export function restoreOneColumnMap(recipe: ColumnRecipe, json: MapJSON): OneCol
     throw new RemapError(`${where}: the saved map should hold ${json.d} fitted column${json.d === 1 ? '' : 's'} but does not; the saved map is damaged. Fit the map again.`);
   }
   const columns = saved.map((raw, k) => recipe.restore(raw, `${where}, column ${k + 1}`));
-  const header: MapHeader = {
-    method: recipe.method,
-    d: json.d,
-    settings: json.settings,
-    columns: json.columns,
-    n: json.n,
-    dropped: json.dropped,
-  };
+  const header = { ...jsonHeader(json), method: recipe.method };
   return new OneColumnMap(header, json.fitted, columns);
 }
 
@@ -184,15 +177,16 @@ function mapFittedSource(c: ColumnMap, raw: Float64Array, s: SortedWithOrder, t:
 
 /**
  * The MethodSpec of a one-column method from its recipe: each column matched on
- * its own, row weights taken, at least 2 rows per sample, no settings beyond the
- * common `tails`. The three 1-D methods differ only in their recipes.
+ * its own, row weights taken, at least 2 rows per sample, one setting: `tails`
+ * (TAILS_SETTING). The three 1-D methods differ only in their recipes.
  */
 export function oneColumnMethod(recipe: ColumnRecipe, summary: string): MethodSpec {
   return {
     name: recipe.method,
     summary,
     shape: 'one-column',
-    settings: [],
+    settings: [TAILS_SETTING],
+    outside: outsideBothTails(recipe.method),
     minRows: () => 2,
     weights: true,
     fit: (source, target, settings, ctx) => fitOneColumnMap(recipe, source, target, settings, ctx),

@@ -135,7 +135,7 @@ describe('gradientNetMethod', () => {
   });
 
   test('steps = 0 gives exactly the linear method\'s map on the same data (to 1e-9, original units)', async () => {
-    const lin = fitLinear(SRC, TGT, { ridge: 0 });
+    const lin = fitLinear(SRC, TGT, { ridge: 0, units: 'raw' });
     const gn = await gradientNetMethod.fit(SRC, TGT, settingsOf({ ...FAST, steps: 0, tails: 'linear' }), {});
     const probe = { n: 3, d: 2, data: Float64Array.of(0, 0, 3, -2, -1.5, 4) };
     for (const x of [SRC, probe]) {
@@ -153,7 +153,7 @@ describe('gradientNetMethod', () => {
     expect(dg.energyBefore).toBe(ref.energyBefore);
     expect(dg.energyAfter).toBe(ref.energyAfter);
     expect(dg.ksMaxAfter).toBe(ref.ksMaxAfter);
-    expect(dg.energyBefore).toBe(fitLinear(SRC, TGT, { ridge: 0 }).diagnostics().energyBefore);
+    expect(dg.energyBefore).toBe(fitLinear(SRC, TGT, { ridge: 0, units: 'raw' }).diagnostics().energyBefore);
   });
 
   test('row weights are honoured: zero-weight rows do not count', async () => {
