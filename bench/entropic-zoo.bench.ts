@@ -4,7 +4,7 @@
  *    iterations (transport + the two self solves), L2-UVP against the family's known optimal map on
  *    2,000 fresh points, and the time to apply the map to `rows` fresh rows (default 200,000; apply
  *    is linear in the rows, so 1,000,000 rows take 5 times as long), with the worst and the median.
- * 2. --sweep: on the tune half only, L2-UVP for smoothing = factor x n^(-2/(d+4)) (standardised units,
+ * 2. --sweep [--factors 0.125,0.25]: on the tune half only, L2-UVP for smoothing = factor x n^(-2/(d+4)) (standardised units,
  *    where the mean column variance is 1): the sweep behind DEFAULT_EPS_FACTOR.
  * One run per figure; the load average is printed beside each table (the machine is shared).
  */
@@ -65,7 +65,7 @@ function report(): void {
 }
 
 function sweep(): void {
-  const factors = [0.03125, 0.0625, 0.125, 0.25];
+  const factors = arg('factors', '0.03125,0.0625,0.125,0.25').split(',').map(Number);
   console.log(`sweep of the default smoothing factor (now ${DEFAULT_EPS_FACTOR}) on the tune half, n = m = ${n}, d = ${d}: L2-UVP %; load average ${load()}`);
   console.log(`family     ${factors.map((c) => String(c).padStart(9)).join(' ')}`);
   const cols: number[][] = factors.map(() => []);

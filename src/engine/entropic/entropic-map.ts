@@ -1,20 +1,11 @@
 import { BaseMap, type MapHeader } from '../base';
 import { RemapError } from '../errors';
-import type { Diagnostics, FitRecord, MapJSON, Mapped } from '../map';
+import type { FitRecord, MapJSON, Mapped } from '../map';
 import type { Points } from '../points';
 import { checkFinite } from '../validate';
 import { barycentricMap } from './barycentric-map';
 import { newtonInverse } from './newton-inverse';
 import { TruncatedSoftmax } from './truncated-softmax';
-
-/**
- * What the entropic map does outside the fitted range, in words for the method's description and
- * the extrapolation warning: every mapped value is an average of target rows, so it never leaves
- * their convex hull.
- */
-export const ENTROPIC_OUTSIDE_NOTE =
-  'The entropic map never leaves the convex hull of the target rows: a value beyond the fitted source range is mapped near the edge of the target cloud, ' +
-  'so extremes are capped at the largest target values seen (this understates tail measures such as value at risk). The tails setting is not used.';
 
 /**
  * What an entropic map needs to map new rows both ways. The supports and potentials are in fitted
@@ -65,7 +56,7 @@ export interface EntropicParamsJSON {
  * no preimage (outside the convex hull of the target rows, or too close to its
  * edge for double precision) is an error naming the row.
  * Both directions stay inside a convex hull: apply inside the target rows'
- * hull (`ENTROPIC_OUTSIDE_NOTE`), and invert accepts only values inside it.
+ * hull (outside.ts words it for the report), and invert accepts only values inside it.
  * `Mapped.outside` counts rows with a coordinate outside the per-column range
  * of the fitted source (apply) or target (invert).
  * Cost: apply O(r * visited rows * d) for r rows (at most O(r m d)); invert
@@ -90,19 +81,6 @@ export class EntropicMap extends BaseMap {
     this.targetRange = columnRange(toRaw(parts.target.data, parts.target.d, parts.targetCentre, parts.scales));
     this.h = new Float64Array(parts.target.n);
     for (let j = 0; j < this.h.length; j++) this.h[j] = parts.targetLogMass[j] + parts.g[j] / parts.eps;
-  }
-
-  /** The diagnostics, with the hull cap said in words once rows beyond the fitted range were mapped. */
-  override diagnostics(): Diagnostics {
-    const base = super.diagnostics();
-    if (!base.warnings.some((w) => w.code === 'extrapolation')) return base;
-    return {
-      ...base,
-      warnings: [
-        ...base.warnings,
-        { code: 'extrapolation', message: ENTROPIC_OUTSIDE_NOTE, action: 'For tail measures, check the extremes against the target sample, or use a method that extrapolates (gradient-net, linear).' },
-      ],
-    };
   }
 
   protected applyPoints(x: Points): Mapped {

@@ -1,7 +1,7 @@
 import { settingsOf, type SettingSpec, type Settings } from '../settings';
 import { UNITS_SETTING, type ColumnUnits } from '../stats/column-scales';
 
-/** The entropic method's own settings (the common `tails` setting is added by methods.ts and not used: see EntropicMap). */
+/** The entropic method's settings (it takes no `tails`: its results stay inside the target's convex hull, see EntropicMap). */
 export const ENTROPIC_SETTINGS = [
   {
     name: 'smoothing',
