@@ -5,12 +5,12 @@
  *    2,000 fresh points, and the time to apply the map to `rows` fresh rows (default 200,000; apply
  *    is linear in the rows, so 1,000,000 rows take 5 times as long), with the worst and the median.
  * 2. --sweep [--factors 0.125,0.25]: on the tune half only, L2-UVP for smoothing = factor x n^(-2/(d+4)) (standardised units,
- *    where the mean column variance is 1): the sweep behind DEFAULT_EPS_FACTOR.
+ *    where the mean column variance is 1): the sweep behind defaultEpsFactor.
  * One run per figure; the load average is printed beside each table (the machine is shared).
  */
 import * as os from 'os';
 import { fitEntropic } from '../src/engine/entropic/fit';
-import { DEFAULT_EPS_FACTOR } from '../src/engine/entropic/default-eps';
+import { defaultEpsFactor } from '../src/engine/entropic/default-eps';
 import { l2uvp, totalVariance } from './truth';
 import { REPORT_FAMILIES, TUNE_FAMILIES, zooPair, type FamilyName } from './zoo';
 
@@ -66,7 +66,7 @@ function report(): void {
 
 function sweep(): void {
   const factors = arg('factors', '0.03125,0.0625,0.125,0.25').split(',').map(Number);
-  console.log(`sweep of the default smoothing factor (now ${DEFAULT_EPS_FACTOR}) on the tune half, n = m = ${n}, d = ${d}: L2-UVP %; load average ${load()}`);
+  console.log(`sweep of the default smoothing factor (now ${defaultEpsFactor(d)}) on the tune half, n = m = ${n}, d = ${d}: L2-UVP %; load average ${load()}`);
   console.log(`family     ${factors.map((c) => String(c).padStart(9)).join(' ')}`);
   const cols: number[][] = factors.map(() => []);
   for (const f of TUNE_FAMILIES as readonly FamilyName[]) {

@@ -9,7 +9,7 @@ export const ENTROPIC_SETTINGS = [
     default: 0,
     min: 0,
     describe:
-      'The entropic regularisation epsilon, in squared units of the fitted data (standardised columns by default; the cost is |x - y|^2 / 2): smaller follows the data more closely but needs more iterations. 0 (the default) chooses 0.125 x the mean variance of a column x n^(-2/(d+4)); the diagnostics show the value used.',
+      'The entropic regularisation epsilon, in squared units of the fitted data (standardised columns by default; the cost is |x - y|^2 / 2): smaller follows the data more closely but needs more iterations. 0 (the default) chooses (d / 32, kept within 1/16..1/4) x the mean variance of a column x n^(-2/(d+4)); the diagnostics show the value used.',
   },
   {
     name: 'max_iterations',
