@@ -52,7 +52,7 @@ export interface RowMatch {
  *
  * @param source n rows, finite, 1 <= n <= MAX_PAIRS_ROWS. Not mutated.
  * @param target n rows with the same d, finite. Not mutated.
- * @param options signal (cancels with RemapError kind 'cancelled'), onProgress, caller (for messages).
+ * @param options signal (cancels with RemapError kind 'cancelled'), onProgress, caller (for messages), coldStart.
  * @throws RemapError if the sizes or column counts differ, a sample is empty, too large or not finite; or if cancelled.
  * @example
  * findPairs(column([0, 10]), column([11, 1])) // { match: Int32Array [1, 0], meanSquaredDistance: 1, ... }
@@ -64,6 +64,8 @@ export function findPairs(
     readonly signal?: { readonly aborted: boolean };
     readonly onProgress?: (p: Progress) => void;
     readonly caller?: string;
+    /** Skip the auction prices and start the exact solver cold (for comparisons; the result is the same optimum). */
+    readonly coldStart?: boolean;
   } = {},
 ): RowMatch {
   const fn = options.caller ?? 'findPairs';
@@ -89,7 +91,7 @@ export function findPairs(
   const table = squaredDistanceTable(standardise(source), standardise(target), options.signal);
   // Auction prices first (epsilon-scaling), then the exact solver from them: on skewed and heavy-tailed data at
   // n = 2,000 (d = 3) this took the solve from 2.0-2.9 s of CPU to 0.5-0.6 s, with the same optimum (bench/pairs.bench.ts).
-  const prices = n >= WARM_FROM ? auctionPrices(table, n, options.signal, fn, options.onProgress) : undefined;
+  const prices = n >= WARM_FROM && !options.coldStart ? auctionPrices(table, n, options.signal, fn, options.onProgress) : undefined;
   const a = solveAssignment(table, n, { signal: options.signal, onProgress: options.onProgress, caller: fn, prices });
   const { d } = source;
   const x = source.data;
