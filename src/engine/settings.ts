@@ -114,7 +114,7 @@ export function describeRange(spec: SettingSpec): string {
 }
 
 /**
- * Parses settings written in one text: `"eps=0.05; seed=7"` (separators `;` or
+ * Parses settings written in one text: `"smoothing=0.05; seed=7"` (separators `;` or
  * `,` or new lines, `=` or `:` between name and value). Empty text gives {}.
  * @throws RemapError on a piece without a name or value.
  * @example parseSettingsText('seed=7; tails=linear') // { seed: '7', tails: 'linear' }

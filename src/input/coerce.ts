@@ -375,7 +375,7 @@ export function readText(v: CellIn, name: string, fn: string, fallback: string):
 }
 
 /**
- * Reads settings given in a formula: either one text cell ("seed=7; eps=0.05")
+ * Reads settings given in a formula: either one text cell ("seed=7; smoothing=0.05")
  * or a range of two columns (name, value), one setting per row. Names are
  * checked later against the method's list.
  * @throws RemapError for a range of another shape or an unreadable piece.

@@ -96,7 +96,7 @@ describe('exact assignment against outside answers', () => {
         const f = findPairs(x, y);
         // Source: brute force over all n! permutations of the squared-distance table.
         expect(f.meanSquaredDistance).toBeCloseTo(bruteForce(table(x, y), n) / n, 10);
-        expect(fitPairs({ ...x, weights: null }, { ...y, weights: null }, { tails: 'clamp' }).cost().w2Squared).toBe(f.meanSquaredDistance);
+        expect(fitPairs({ ...x, weights: null }, { ...y, weights: null }, { units: 'raw' }).cost().w2Squared).toBe(f.meanSquaredDistance);
       }
     }
   });
@@ -125,7 +125,7 @@ describe('exact assignment against outside answers', () => {
     const n = 99;
     const xs = Array.from({ length: n }, () => r() * 5);
     const ys = Array.from({ length: n }, () => 100 + 30 * r());
-    const map = fitPairs({ ...column(xs), weights: null }, { ...column(ys), weights: null }, { tails: 'clamp' });
+    const map = fitPairs({ ...column(xs), weights: null }, { ...column(ys), weights: null }, { units: 'raw' });
     const medX = quantileSorted([...xs].sort((a, b) => a - b), 0.5);
     const medY = quantileSorted([...ys].sort((a, b) => a - b), 0.5);
     // Source: simple-statistics quantileSorted (the middle value for odd n), with the 1-D monotone rearrangement.
