@@ -2,6 +2,7 @@ import { RemapError, isRemapError } from '../engine/errors';
 import { chooseMethod } from '../engine/auto';
 import type { TransportMap } from '../engine/map';
 import { parseMapJSON } from '../engine/map-json';
+import { extrapolationWarning } from '../engine/outside';
 import { getMethod, listMethods, restoreMap, settingSpecs, startFit } from '../engine/methods';
 import { parseSettingsText } from '../engine/settings';
 import { CellError, type CellIn } from '../input/cells';
@@ -239,9 +240,9 @@ function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'i
   const csv = formatCSV(out);
   if (flags.out) io.writeFile(flags.out, csv);
   else io.stdout(csv);
-  if (mapped.outside > 0) {
-    io.stderr(`remap: warning: ${mapped.outside} of ${mapped.n} rows lay outside the range the map was fitted on; their values are extrapolated (${String(map.diagnostics().settings.tails ?? 'clamp')}).\n`);
-  }
+  // This call's own rows outside the fitted range, worded by what the method does there (not by the tails setting alone).
+  const outside = extrapolationWarning(map, mapped, command);
+  if (outside) io.stderr(`remap: warning: ${oneLine(outside.message)} ${outside.action}\n`);
 }
 
 /** A message on one line: names read from files (quoted CSV headers) may hold line breaks. */
@@ -266,9 +267,10 @@ export async function main(argv: readonly string[], cliIO: CliIO): Promise<numbe
         const { map, reason } = await fitFromFlags(io, flags, 'fit');
         io.writeFile(out, JSON.stringify(map.toJSON()));
         const diag = map.diagnostics();
-        io.stderr(`remap: fitted ${diag.method} on ${diag.n.source} x ${diag.n.target} rows, ${diag.d} column${diag.d === 1 ? '' : 's'}; squared W2 ${diag.cost.w2Squared.toPrecision(6)}; wrote ${out}.\n`);
+        io.stderr(`remap: fitted ${diag.method} on ${diag.n.source} x ${diag.n.target} rows, ${diag.d} column${diag.d === 1 ? '' : 's'}; cost (${diag.cost.label}) ${diag.cost.w2Squared.toPrecision(6)}; wrote ${out}.\n`);
         if (reason) io.stderr(`remap: method chosen: ${reason}\n`);
         for (const w of diag.warnings) io.stderr(`remap: warning: ${w.message} ${w.action}\n`);
+        io.stderr(`remap: ${diag.reminder}\n`);
         map.dispose();
         return 0;
       }
@@ -286,13 +288,19 @@ export async function main(argv: readonly string[], cliIO: CliIO): Promise<numbe
           w2: c.w2,
           ...(c.w1 !== undefined ? { w1: c.w1 } : {}),
           ...(c.perColumn ? { per_column_w2_squared: c.perColumn } : {}),
+          // What the figure is: w2_squared is the squared W2 itself only when bound is "exact".
+          bound: c.bound,
+          label: c.label,
+          ...(c.units ? { units: c.units } : {}),
           kind: c.kind,
           note: c.note,
           n_source: diag.n.source,
           n_target: diag.n.target,
           d: diag.d,
           ...(reason ? { method_reason: reason } : {}),
+          ...(diag.effectiveSize ? { effective_size: diag.effectiveSize } : {}),
           warnings: diag.warnings.map((w) => w.message),
+          reminder: diag.reminder,
         };
         io.stdout(JSON.stringify(result, null, 2) + '\n');
         map.dispose();

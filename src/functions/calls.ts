@@ -3,12 +3,15 @@ import { Fingerprint } from '../engine/fingerprint';
 import { parseMapJSON } from '../engine/map-json';
 import { restoreMap } from '../engine/methods';
 import { gaussianW2Squared } from '../engine/linear/bures';
+import type { Mapped, TransportMap } from '../engine/map';
+import { extrapolationWarning } from '../engine/outside';
 import { CellError, asRows, readNumbers, readText, readValues, writeValues, type CellIn, type CellOut, type Grid } from '../input';
 import {
   currentKeeper,
   fitFromInputs,
   isHandle,
   makeHandle,
+  noteCellMap,
   readFit,
   remember,
   reportTable,
@@ -31,6 +34,25 @@ import {
  * same functions.
  */
 
+/**
+ * Records, for the cell that made this call (when its address is known), the
+ * warning about its own values lying outside the fitted range, so the pane's
+ * formula list shows it beside that cell. The map itself keeps nothing of the
+ * call. Returns `mapped`. O(1).
+ */
+function noteCall(cell: string | undefined, fn: string, handle: string, map: TransportMap, mapped: Mapped, verb: 'apply' | 'invert'): Mapped {
+  if (cell) {
+    const w = extrapolationWarning(map, mapped, verb);
+    noteCellMap(cell, fn, handle, w ? [w] : []);
+  }
+  return mapped;
+}
+
+/** Where a function that uses another cell's map was called from (Excel's @requiresAddress), when known. */
+export interface CallSite {
+  readonly cell?: string;
+}
+
 /** REMAP.VALUES: values mapped from the source's distribution onto the target's. */
 export function values(
   vals: CellIn,
@@ -45,10 +67,16 @@ export function values(
   const fn = 'REMAP.VALUES';
   const inputs = readFit(fn, { source, target, method, settings, sourceWeights, targetWeights });
   const { points, layout } = readValues(vals, inputs.source.sample.d, fn);
-  return then(fitFromInputs(inputs, ctx), (map) => checkPayload(writeValues(map.apply(points), layout), fn));
+  return then(fitFromInputs(inputs, ctx), (map) =>
+    checkPayload(writeValues(noteCall(ctx.cell, fn, inputs.handle, map, map.apply(points), 'apply'), layout), fn),
+  );
 }
 
-/** REMAP.COST: the squared 2-Wasserstein estimate between source and target by the chosen method. */
+/**
+ * REMAP.COST: the transport cost between source and target by the chosen
+ * method. What the number is depends on the method (exact squared W2, a lower
+ * bound on it, or an estimate): REMAP.REPORT and the pane give its label.
+ */
 export function cost(
   source: CellIn,
   target: CellIn,
@@ -96,21 +124,22 @@ export function streamFitCell(args: readonly CellIn[], sink: StreamSink, toError
   streamFit(() => readFit('REMAP.FIT', { source, target, method, settings, sourceWeights, targetWeights }), sink, toError);
 }
 
-/** REMAP.APPLY: a fitted map applied to values. */
-export function apply(model: CellIn, vals: CellIn): MaybePromise<Grid> {
-  const fn = 'REMAP.APPLY';
-  return then(resolveMap(modelText(model, fn), fn), (map) => {
-    const { points, layout } = readValues(vals, map.d, fn);
-    return checkPayload(writeValues(map.apply(points), layout), fn);
-  });
+/** REMAP.APPLY: a fitted map applied to values; rows outside the fitted range are recorded with the calling cell. */
+export function apply(model: CellIn, vals: CellIn, site: CallSite = {}): MaybePromise<Grid> {
+  return mapWith('REMAP.APPLY', model, vals, 'apply', site);
 }
 
-/** REMAP.INVERT: a fitted map's inverse applied to values. */
-export function invert(model: CellIn, vals: CellIn): MaybePromise<Grid> {
-  const fn = 'REMAP.INVERT';
-  return then(resolveMap(modelText(model, fn), fn), (map) => {
+/** REMAP.INVERT: a fitted map's inverse applied to values; rows outside the fitted target range are recorded with the calling cell. */
+export function invert(model: CellIn, vals: CellIn, site: CallSite = {}): MaybePromise<Grid> {
+  return mapWith('REMAP.INVERT', model, vals, 'invert', site);
+}
+
+function mapWith(fn: string, model: CellIn, vals: CellIn, verb: 'apply' | 'invert', site: CallSite): MaybePromise<Grid> {
+  const text = modelText(model, fn);
+  return then(resolveMap(text, fn), (map) => {
     const { points, layout } = readValues(vals, map.d, fn);
-    return checkPayload(writeValues(map.invert(points), layout), fn);
+    const mapped = verb === 'apply' ? map.apply(points) : map.invert(points);
+    return checkPayload(writeValues(noteCall(site.cell, fn, isHandle(text) ? text.trim() : '', map, mapped, verb), layout), fn);
   });
 }
 

@@ -9,7 +9,7 @@ import { workbookKeeper } from '../workbook/keeper';
 
 /**
  * Maps values from the source's distribution onto the target's (monotone transport map), spilled in the shape of values. The map is an estimate: the
- * Remap pane lists this formula with its map's warnings.
+ * Remap pane lists this formula with its map's warnings and with how many of its values lay outside the fitted range.
  * @customfunction VALUES
  * @cancelable
  * @requiresAddress
@@ -37,8 +37,9 @@ export function values(
 }
 
 /**
- * Squared 2-Wasserstein cost of moving the source distribution onto the target (exact for one column). The Remap pane lists this formula with its
- * map's warnings.
+ * Transport cost of moving the source distribution onto the target. What the number is depends on the method: the exact squared 2-Wasserstein
+ * distance (quantile, step or ordinal on one column; pairs), a lower bound on it (linear; quantile on several columns), or an estimate (entropic,
+ * gradient-net). REMAP.REPORT and the Remap pane give its label; the pane lists this formula with its map's warnings.
  * @customfunction COST
  * @cancelable
  * @requiresAddress
@@ -49,7 +50,7 @@ export function values(
  * @param [source_weights] One non-negative weight per source row.
  * @param [target_weights] One non-negative weight per target row.
  * @param invocation Excel's cancel hook: a long fit stops when the inputs change or the cell is cleared.
- * @returns The squared W2 estimate.
+ * @returns The cost; its label (exact, lower bound, estimate) is in REMAP.REPORT and the pane.
  */
 export function cost(
   source: any[][],
@@ -106,25 +107,36 @@ export function fit(
 }
 
 /**
- * Applies a fitted map to values.
+ * Applies a fitted map to values. Values outside the range the map was fitted on are extrapolated: the Remap pane lists this formula with how many
+ * of its values were and what the method did with them.
  * @customfunction APPLY
+ * @requiresAddress
  * @param model The cell holding REMAP.FIT's handle, or REMAP.SAVE's JSON text.
  * @param values Cells to map (one row per point for several columns).
+ * @param invocation Excel's call details: the cell's address, to record this call's warnings for the pane.
  * @returns The mapped values.
  */
-export function apply(model: any, values: any[][]): any[][] {
-  return guard(() => calls.apply(model, values)) as unknown as any[][];
+export function apply(model: any, values: any[][], invocation?: CustomFunctions.Invocation): any[][] {
+  return guard(() => calls.apply(model, values, siteOf(invocation))) as unknown as any[][];
 }
 
 /**
- * Applies the inverse of a fitted map: from the target's distribution back to the source's.
+ * Applies the inverse of a fitted map: from the target's distribution back to the source's. The Remap pane lists this formula with how many of its
+ * values lay outside the fitted target range.
  * @customfunction INVERT
+ * @requiresAddress
  * @param model The cell holding REMAP.FIT's handle, or REMAP.SAVE's JSON text.
  * @param values Cells to map back.
+ * @param invocation Excel's call details: the cell's address, to record this call's warnings for the pane.
  * @returns The values mapped back.
  */
-export function invert(model: any, values: any[][]): any[][] {
-  return guard(() => calls.invert(model, values)) as unknown as any[][];
+export function invert(model: any, values: any[][], invocation?: CustomFunctions.Invocation): any[][] {
+  return guard(() => calls.invert(model, values, siteOf(invocation))) as unknown as any[][];
+}
+
+/** The calling cell's address (with @requiresAddress), so the pane can show the warnings of this cell's own values. */
+function siteOf(invocation?: CustomFunctions.Invocation): calls.CallSite {
+  return invocation?.address ? { cell: invocation.address } : {};
 }
 
 /**

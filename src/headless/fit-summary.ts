@@ -61,9 +61,12 @@ export function short(v: number | undefined): string {
 }
 
 /**
- * The summary as text lines: one block per fit (method, rows, cost, energy
- * distance before -> after, largest KS after, convergence, warnings), then the
- * formulas that gave errors with their messages. O(fits + errors).
+ * The summary as text lines: one block per fit (method, rows, the cost after
+ * its label, energy distance before -> after, largest KS after, convergence,
+ * warnings), then the formulas that gave errors with their messages. The cost
+ * is always printed after the label that says what it is (exact, a lower bound,
+ * an estimate, a displacement). O(fits + errors).
+ * @example formatSummary(s)[1] // '      squared W2, lower bound (Gaussians with the same means and covariances; Gelbrich) 992.7'
  */
 export function formatSummary(s: WorkbookSummary): string[] {
   const lines: string[] = [];
@@ -77,13 +80,22 @@ export function formatSummary(s: WorkbookSummary): string[] {
       ? `, ${d.convergence.converged ? 'converged' : 'not converged'} after ${d.convergence.iterations} ${d.method === 'gradient-net' ? 'steps' : 'iterations'}`
       : '';
     lines.push(`  ${f.cell}  ${d.method}, ${d.n.source} -> ${d.n.target} rows x ${d.d} column${d.d === 1 ? '' : 's'}${conv}`);
+    lines.push(`      ${costLine(d)}`);
     lines.push(
-      `      cost (squared W2) ${short(d.cost.w2Squared)}   energy distance ${short(d.energyBefore)} -> ${short(d.energyAfter)}   largest KS ` +
-        `after ${short(d.ksMaxAfter)}` +
+      `      energy distance ${short(d.energyBefore)} -> ${short(d.energyAfter)}   largest KS after ${short(d.ksMaxAfter)}` +
         (d.minJacobianEigenvalue !== undefined ? `   smallest Jacobian eigenvalue ${short(d.minJacobianEigenvalue)}` : ''),
     );
     lines.push(`      warnings: ${d.warnings.length === 0 ? 'none' : d.warnings.map((w) => w.code).join(', ')}`);
   }
   for (const e of s.errors) lines.push(`  ${e.cell}: ${e.error} ${e.message}`);
   return lines;
+}
+
+/**
+ * The cost after its label, e.g. "squared W2, exact 180,987,038"; standardised
+ * figures say so. O(1).
+ * @example costLine(diag) // 'squared W2, estimate (debiased Sinkhorn divergence) 1324'
+ */
+export function costLine(d: Diagnostics): string {
+  return `${d.cost.label}${d.cost.units === 'standardised' ? ' (standardised units)' : ''} ${short(d.cost.w2Squared)}`;
 }

@@ -1,21 +1,30 @@
-import type { Diagnostics } from '../engine/map';
+import type { Diagnostics, Warning } from '../engine/map';
+import { ESTIMATE_REMINDER as ENGINE_REMINDER } from '../engine/base';
 import { warningsInWords } from './plain-words';
 
 /**
  * What the pane says about one REMAP formula found in the workbook: which
- * function it calls and, for those that fit a map, the map's warnings in words
- * (or, with none, a reminder that the map is an estimate to validate). Pure; no
- * DOM, no Office.
+ * function it calls; for those that fit a map, the map's warnings in words (or,
+ * with none, the reminder that the map is an estimate to validate); and for
+ * those that map values (VALUES, APPLY, INVERT), the warnings about that
+ * cell's own values, such as rows outside the fitted range. Pure; no DOM, no
+ * Office.
  */
 
-/** The reminder shown for a map without warnings: no warning is not the same as validated. */
-export const ESTIMATE_REMINDER =
-  'No warnings. The map is still an estimate from two samples: check it (for example on held-out rows) before it drives a decision.';
+/** The line shown for a formula without warnings: no warning is not the same as validated. */
+export function noWarningsLine(reminder: string = ENGINE_REMINDER): string {
+  return `No warnings. ${reminder}`;
+}
+
+/** The same line with the engine's reminder. */
+export const ESTIMATE_REMINDER = noWarningsLine();
 
 /** Functions whose cell fits (or restores) a map of its own. */
 const FITTING = new Set(['VALUES', 'COST', 'FIT', 'PAIRS', 'LOAD']);
 /** Functions that use the map held in another cell. */
 const USING = new Set(['APPLY', 'INVERT', 'REPORT', 'SAVE']);
+/** Functions that map values, whose own values may lie outside the fitted range. */
+const MAPPING = new Set(['VALUES', 'APPLY', 'INVERT']);
 
 /** One line of the pane's "Formulas in this workbook" list. */
 export interface FormulaStatus {
@@ -38,10 +47,11 @@ export function remapFunctionOf(formula: string): string {
 
 /**
  * What to say about a formula, given its map's diagnostics when the map is
- * known (undefined when it is not). O(#warnings).
+ * known (undefined when it is not) and the warnings of the cell's own last call
+ * (undefined when the cell has not mapped values in this session). O(#warnings).
  * @example formulaStatus('=REMAP.VALUES(A2:A9,A2:A9,B2:B9)', undefined).kind // 'unknown'
  */
-export function formulaStatus(formula: string, diag: Diagnostics | undefined): FormulaStatus {
+export function formulaStatus(formula: string, diag: Diagnostics | undefined, calls?: readonly Warning[]): FormulaStatus {
   const fn = remapFunctionOf(formula);
   if (fn === 'GAUSSCOST') {
     return {
@@ -50,12 +60,17 @@ export function formulaStatus(formula: string, diag: Diagnostics | undefined): F
       lines: [{ title: 'Closed form', text: 'The cost between two Gaussians given by their means and covariances; no map is fitted to data.' }],
     };
   }
+  const own = MAPPING.has(fn) && calls ? inWords(calls) : [];
   if (USING.has(fn)) {
-    return {
-      fn,
-      kind: 'other',
-      lines: [{ title: 'Uses another cell\u2019s map', text: 'Its warnings are listed with the REMAP.FIT (or REMAP.LOAD) cell it names.' }],
-    };
+    const pointer = { title: 'Uses another cell\u2019s map', text: 'The map\u2019s own warnings are listed with the REMAP.FIT (or REMAP.LOAD) cell it names.' };
+    if (MAPPING.has(fn) && !calls) {
+      return {
+        fn,
+        kind: 'unknown',
+        lines: [{ title: 'Not calculated in this session', text: 'Recalculate it to see whether its values lay outside the fitted range.' }, pointer],
+      };
+    }
+    return { fn, kind: own.length > 0 ? 'warnings' : 'other', lines: [...own, pointer] };
   }
   if (!FITTING.has(fn)) return { fn, kind: 'other', lines: [] };
   if (!diag) {
@@ -70,7 +85,11 @@ export function formulaStatus(formula: string, diag: Diagnostics | undefined): F
       ],
     };
   }
-  const warnings = warningsInWords(diag.warnings);
-  if (warnings.length === 0) return { fn, kind: 'clean', lines: [{ title: 'No warnings', text: ESTIMATE_REMINDER }] };
-  return { fn, kind: 'warnings', lines: warnings.map((w) => ({ title: w.title, text: `${w.text} What to do: ${w.action}` })) };
+  const lines = [...inWords(diag.warnings), ...own];
+  if (lines.length === 0) return { fn, kind: 'clean', lines: [{ title: 'No warnings', text: noWarningsLine(diag.reminder) }] };
+  return { fn, kind: 'warnings', lines };
+}
+
+function inWords(ws: readonly Warning[]): { title: string; text: string }[] {
+  return warningsInWords(ws).map((w) => ({ title: w.title, text: `${w.text} What to do: ${w.action}` }));
 }

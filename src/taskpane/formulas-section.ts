@@ -11,7 +11,9 @@ import { pane } from './pane-state';
 /*
  * Formulas in this workbook: every REMAP formula found in the sheets' used
  * ranges, with its map's warnings in words, so someone who only types
- * REMAP.VALUES still sees what the map's report would tell them.
+ * REMAP.VALUES still sees what the map's report would tell them, and, for a
+ * cell that mapped values (VALUES, APPLY, INVERT), how many of its own values
+ * lay outside the fitted range and what the method did with them.
  */
 
 /** Finds the REMAP formulas and lists each with its map's warnings. */
@@ -56,7 +58,9 @@ async function diagnosticsOf(handle: string | undefined): Promise<Diagnostics | 
 }
 
 async function formulaItem(f: FoundFormula): Promise<HTMLLIElement> {
-  const status = formulaStatus(f.formula, await diagnosticsOf(handleOf(f)));
+  const fn = remapFunctionOf(f.formula);
+  const uses = fn === 'APPLY' || fn === 'INVERT' || fn === 'REPORT' || fn === 'SAVE';
+  const status = formulaStatus(f.formula, uses ? undefined : await diagnosticsOf(handleOf(f)), cellMap(f.address)?.calls);
   const li = document.createElement('li');
   li.className = `formula-item ${status.kind}`;
   const head = document.createElement('button');

@@ -1,10 +1,13 @@
-import type { Diagnostics, Warning } from '../engine/map';
+import type { Diagnostics, LabelledCost, Warning } from '../engine/map';
+import { weightedEffectiveSize } from '../fits/report-table';
 
 /**
  * A fitted map's diagnostics said in plain sentences for the pane: what was
- * moved onto what, the cost, how close the mapped source came to the target,
- * whether the map is certified monotone, and whether the fit converged. Pure;
- * O(#columns + #warnings).
+ * moved onto what (with the effective sizes when weights make them smaller),
+ * the cost with what it is (exact, a lower bound, an estimate), how close the
+ * mapped source came to the target and on which rows that was measured,
+ * whether the map is certified monotone, whether the fit converged, and what
+ * happens to values outside the fitted range. Pure; O(#columns + #warnings).
  * @example diagnosticsInWords(map.diagnostics())[0] // 'Moved 500 source rows onto 600 target rows (2 columns: income, age) with the entropic method.'
  */
 export function diagnosticsInWords(d: Diagnostics): string[] {
@@ -14,7 +17,14 @@ export function diagnosticsInWords(d: Diagnostics): string[] {
   if (d.dropped.source + d.dropped.target > 0) {
     out.push(`${count(d.dropped.source)} source and ${count(d.dropped.target)} target entries were skipped (blank, text, logical or error cells).`);
   }
-  out.push(`Transport cost: squared W2 = ${num(d.cost.w2Squared)} (W2 = ${num(d.cost.w2)}, the typical distance a value moves). ${d.cost.note}`);
+  const eff = weightedEffectiveSize(d);
+  if (eff) {
+    out.push(
+      `With their weights, the ${count(d.n.source)} source rows count as about ${effective(eff.source)} and the ${count(d.n.target)} target rows ` +
+        `as about ${effective(eff.target)} (Kish's effective sample size): that, not the row count, is how much the map is based on.`,
+    );
+  }
+  out.push(costInWords(d.cost));
   if (d.energyBefore !== undefined && d.energyAfter !== undefined) {
     const drop = d.energyBefore > 0 ? Math.round(100 * (1 - d.energyAfter / d.energyBefore)) : null;
     out.push(
@@ -28,6 +38,7 @@ export function diagnosticsInWords(d: Diagnostics): string[] {
         `KS statistic ${num(d.ksMaxAfter)}).`,
     );
   }
+  if (d.comparison && (d.energyAfter !== undefined || d.ksMaxAfter !== undefined)) out.push(d.comparison.note);
   if (d.minJacobianEigenvalue !== undefined) {
     out.push(
       d.minJacobianEigenvalue >= 0
@@ -43,7 +54,21 @@ export function diagnosticsInWords(d: Diagnostics): string[] {
         : `It did not converge within ${count(c.iterations)} iterations (final ${c.criterion} ${num(c.finalError)}).`,
     );
   }
+  if (d.outside) out.push(`Outside the fitted range: ${d.outside}.`);
   return out;
+}
+
+/**
+ * The cost sentence: the figure after its label, so a lower bound or a
+ * displacement is never read as the squared W2 itself; the square root is
+ * called W2 only when the figure is exact. Pure; O(1).
+ * @example costInWords({ kind: 'bures', w2Squared: 5, w2: 2.236, note: 'Closed form.', bound: 'lower', label: 'squared W2, lower bound' })
+ *   // 'Transport cost (squared W2, lower bound): 5. Closed form.'
+ */
+export function costInWords(c: LabelledCost): string {
+  const units = c.units === 'standardised' ? ', in standardised units' : '';
+  const root = c.bound === 'exact' ? ` (W2 = ${num(c.w2)}, the typical distance a value moves)` : '';
+  return `Transport cost (${c.label}${units}): ${num(c.w2Squared)}${root}. ${c.note}`.trimEnd();
 }
 
 /**
@@ -67,7 +92,14 @@ const TITLES: Record<string, string> = {
   'source-rows-only': 'Maps the source rows only',
   'time-budget': 'Stopped at the time budget',
   'unequal-sizes': 'Samples of different sizes',
+  'different-rows': 'Figures measured on different rows',
+  compacted: 'Fewer knots kept',
 };
+
+/** An effective size: whole numbers as counts, others to 3 significant digits. */
+function effective(n: number): string {
+  return Number.isInteger(n) ? count(n) : String(Number(n.toPrecision(3)));
+}
 
 function count(n: number): string {
   return n.toLocaleString('en-US');

@@ -2,7 +2,7 @@ import type { Diagnostics } from '../engine/map';
 import { insertComparisonChart } from '../workbook/comparison-chart';
 import { $, listItem, messageOf, PLOT_WIDTH, setStatus } from './dom';
 import { pane } from './pane-state';
-import { ESTIMATE_REMINDER } from './formula-status';
+import { noWarningsLine } from './formula-status';
 import { diagnosticsInWords, warningsInWords } from './plain-words';
 import { chartTable, columnName, distributionSvg, qqSvg, scatterSvg, type PlotData } from './plots-view';
 
@@ -19,7 +19,7 @@ export function showResults(handle: string, diag: Diagnostics, data: PlotData | 
   const warnings = warningsInWords(diag.warnings);
   const wl = $('warnings');
   if (warnings.length === 0) {
-    wl.replaceChildren(listItem(ESTIMATE_REMINDER, 'none'));
+    wl.replaceChildren(listItem(noWarningsLine(diag.reminder), 'none'));
   } else {
     wl.replaceChildren(
       ...warnings.map((w) => {
@@ -32,6 +32,8 @@ export function showResults(handle: string, diag: Diagnostics, data: PlotData | 
         li.append(title, w.text, what);
         return li;
       }),
+      // Shown with warnings too: fixing every warning does not make the map validated.
+      listItem(diag.reminder, 'none'),
     );
   }
   pane.shown = data ? { ...data, handle } : null;

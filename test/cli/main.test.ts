@@ -31,6 +31,35 @@ describe('remap command line', () => {
     expect(j.w2).toBeCloseTo(Math.sqrt(378), 10);
   });
 
+  test('cost JSON says what the figure is; fit prints the label beside the number and the reminder', async () => {
+    const files: Record<string, string> = { 's.csv': S, 't.csv': T };
+    const j = JSON.parse((await run(['cost', '--source', 's.csv', '--target', 't.csv', '--columns', 'x'], files)).out);
+    // Source: design choice (one column with quantile: the exact squared W2)
+    expect(j).toMatchObject({ bound: 'exact', label: 'squared W2, exact' });
+    const two = 'a,b\n0,1\n1,0\n2,3\n3,1\n4,4\n5,2\n6,7\n7,5\n';
+    const two2 = 'a,b\n5,2\n6,1\n8,4\n9,7\n3,3\n12,10\n4,8\n15,11\n';
+    const lin = JSON.parse((await run(['cost', '--source', 'a.csv', '--target', 'b.csv', '--method', 'linear'], { 'a.csv': two, 'b.csv': two2 })).out);
+    // Source: design choice (Gelbrich 1990: the Gaussian figure is a lower bound)
+    expect(lin.bound).toBe('lower');
+    expect(lin.label).toMatch(/lower bound/);
+    const fit = await run(['fit', '--source', 'a.csv', '--target', 'b.csv', '--method', 'linear', '--out', 'm.json'], { 'a.csv': two, 'b.csv': two2 });
+    expect(fit.err).toMatch(/cost \(squared W2, lower bound [^)]*\)\) [0-9.]+; wrote m\.json/);
+    expect(fit.err).toMatch(/held-out data/);
+  });
+
+  test('apply and invert warn on stderr about their own rows outside the fitted range, in words', async () => {
+    const files: Record<string, string> = { 's.csv': S, 't.csv': T, 'x.csv': 'x\n0\n2\n4\n', 'y.csv': 'x\n20\n25\n' };
+    await run(['fit', '--source', 's.csv', '--target', 't.csv', '--columns', 'x', '--out', 'm.json'], files);
+    const apply = await run(['apply', '--model', 'm.json', '--input', 'x.csv'], files);
+    expect(apply.code).toBe(0);
+    // Source: counted by hand: the source range is [1, 3]; 0 and 4 lie outside, 2 does not
+    expect(apply.err).toMatch(/^remap: warning: 2 of 3 rows \(66\.7%\) lay outside the source range .*clamped/);
+    expect(apply.err).not.toMatch(/\(clamp\)\.$/m);
+    const inv = await run(['invert', '--model', 'm.json', '--input', 'y.csv'], files);
+    // Source: counted by hand: 20 and 25 lie inside the target range [10, 30]
+    expect(inv.err).toBe('');
+  });
+
   test('weights come from a named column and change the result', async () => {
     const files = { 's.csv': S, 't.csv': T };
     const plain = JSON.parse((await run(['cost', '--source', 's.csv', '--target', 't.csv', '--columns', 'x'], files)).out);

@@ -162,7 +162,8 @@ describe('REMAP.FIT, APPLY, INVERT, REPORT, SAVE', () => {
     const table = (await F.report(h)) as unknown[][];
     expect(table.every((r) => r.length === 2)).toBe(true);
     expect(table).toContainEqual(['Method', 'quantile']);
-    const cost = table.find((r) => r[0] === 'Cost: squared W2');
+    // Source: design choice (the row's label is the cost's own label; one column with quantile is exact)
+    const cost = table.find((r) => r[0] === 'Cost: squared W2, exact');
     expect(typeof cost?.[1]).toBe('number');
   });
 

@@ -20,6 +20,50 @@ describe('summariseFormulas', () => {
     expect(text).toContain('energy distance');
     expect(text).toContain('S!B1: #VALUE! Not a number');
   });
+  test("prints each cost after its label: a linear map's figure is a lower bound, a one-column quantile figure exact", () => {
+    const src = [
+      [0, 1],
+      [1, 0],
+      [2, 3],
+      [3, 1],
+      [4, 4],
+      [5, 2],
+      [6, 7],
+      [7, 5],
+      [8, 6],
+      [9, 9],
+      [10, 8],
+      [11, 12],
+    ];
+    const tgt = [
+      [5, 2],
+      [6, 1],
+      [8, 4],
+      [9, 7],
+      [3, 3],
+      [12, 10],
+      [4, 8],
+      [15, 11],
+      [6, 5],
+      [10, 14],
+      [7, 13],
+      [14, 12],
+    ];
+    const linear = calls.fit(src, tgt, 'linear') as string;
+    const quantile = calls.fit([[1], [2], [3]], [[10], [20], [30]]) as string;
+    const text = formatSummary(
+      summariseFormulas([
+        { cell: { sheet: 'S', row: 0, col: 0, address: 'A1', formula: 'REMAP.FIT(B1:C12, D1:E12, "linear")' }, block: [[linear]] },
+        { cell: { sheet: 'S', row: 1, col: 0, address: 'A2', formula: 'REMAP.FIT(F1:F3, G1:G3)' }, block: [[quantile]] },
+      ]),
+    ).join('\n');
+    // Source: design choice (Gelbrich 1990: the Gaussian figure bounds the samples' squared W2 from below, and the line says so)
+    expect(text).toMatch(/^ {6}squared W2, lower bound \(.*Gelbrich\) \d/m);
+    // Source: worked by hand: (1,2,3) -> (10,20,30): (81 + 324 + 729) / 3 = 378, exact in one column
+    expect(text).toMatch(/^ {6}squared W2, exact 378$/m);
+    expect(text).not.toMatch(/cost \(squared W2\)/);
+  });
+
   test('short() writes 4 significant digits, thousands separators for large numbers, and - for missing ones', () => {
     // Source: worked examples
     expect(short(992.6620369886601)).toBe('992.7');

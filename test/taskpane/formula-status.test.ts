@@ -26,7 +26,7 @@ describe('what the pane says about each REMAP formula in the workbook', () => {
     const s = formulaStatus('=REMAP.COST(A1:A9,B1:B9)', diag([]));
     expect(s.kind).toBe('clean');
     expect(s.lines[0].text).toBe(ESTIMATE_REMINDER);
-    expect(ESTIMATE_REMINDER).toMatch(/estimate/);
+    expect(ESTIMATE_REMINDER).toMatch(/^No warnings\. .*estimate/);
   });
 
   test('a fitting formula whose map this session does not know says how to see its warnings', () => {
@@ -36,9 +36,32 @@ describe('what the pane says about each REMAP formula in the workbook', () => {
     expect(s.lines[0].text).toMatch(/Recalculate/);
   });
 
+  test("an APPLY cell shows the warning about its own values outside the fitted range, and points to the map's cell", () => {
+    // Source: design choice (per-call warnings live with the cell, never in the map's report)
+    const outside = { code: 'extrapolation' as const, message: '2 of 3 rows (66.7%) lay outside the source range.', action: 'Treat them with caution.' };
+    const s = formulaStatus('=REMAP.APPLY(F2,A2:A4)', undefined, [outside]);
+    expect(s.kind).toBe('warnings');
+    expect(s.lines[0]).toEqual({
+      title: 'Values outside the fitted range',
+      text: '2 of 3 rows (66.7%) lay outside the source range. What to do: Treat them with caution.',
+    });
+    expect(s.lines[1].title).toMatch(/another cell/);
+    expect(formulaStatus('=REMAP.INVERT(F2,A2:A4)', undefined, []).kind).toBe('other');
+    expect(formulaStatus('=REMAP.INVERT(F2,A2:A4)', undefined, undefined).kind).toBe('unknown');
+  });
+
+  test("a VALUES cell with a clean map but values outside its range lists the call's warning, not the no-warnings line", () => {
+    // Source: design choice
+    const outside = { code: 'extrapolation' as const, message: '1 of 4 rows lay outside.', action: 'Check them.' };
+    const s = formulaStatus('=REMAP.VALUES(A1:A4,B1:B9,C1:C9)', diag([]), [outside]);
+    expect(s.kind).toBe('warnings');
+    expect(s.lines.map((l) => l.title)).toEqual(['Values outside the fitted range']);
+  });
+
   test('APPLY points to the cell whose map it uses; GAUSSCOST fits no map', () => {
     // Source: design choice (APPLY/INVERT/REPORT/SAVE use the map held in another cell)
-    expect(formulaStatus('=REMAP.APPLY(F2,A2:A9)', undefined).kind).toBe('other');
+    expect(formulaStatus('=REMAP.APPLY(F2,A2:A9)', undefined, []).kind).toBe('other');
+    expect(formulaStatus('=REMAP.REPORT(F2)', undefined).kind).toBe('other');
     expect(formulaStatus('=REMAP.GAUSSCOST(0,1,0,4)', undefined).lines[0].title).toBe('Closed form');
   });
 });
