@@ -1,8 +1,9 @@
 /**
  * Command-line benchmark (run: npx tsx bench/cli.bench.ts; needs `npm run build:cli` first).
- * Whole processes of the compiled `remap`: `methods` (goal <= 0.3 s), and fit and apply of a
- * 1,048,576-row quantile map from CSV, against the engine on the same rows plus reading the
- * file once (fs.readFileSync), measured in this run (goal: each <= 3x). Prints the load average.
+ * Whole processes of the compiled `remap`: `methods` (goal <= 0.3 s), and fit and apply of
+ * 1,048,576 rows from CSV, one column (quantile) and five columns (linear), each against the
+ * engine on the same rows plus reading the file(s) once (fs.readFileSync), measured in this run
+ * (goal: each <= 3x). Prints the load average and each process's peak memory (maxRSS).
  * Seeded data, written to a temporary folder.
  */
 import { spawnSync } from 'child_process';
@@ -14,45 +15,90 @@ import { Random } from '../src/engine/stats/random';
 
 const N = 1_048_576;
 const bin = path.resolve(__dirname, '..', 'bin', 'remap.js');
+const load = (): string => os.loadavg().map((v) => v.toFixed(2)).join(' ');
 
-function run(args: string[]): number {
+/** Seconds and peak resident memory (MB) of one whole `remap` process. */
+function run(args: string[]): { s: number; mb: number } {
   const t0 = performance.now();
-  const r = spawnSync(process.execPath, [bin, ...args], { encoding: 'utf8', maxBuffer: 1 << 30 });
+  // /usr/bin/time is not everywhere: the process reports its own peak through an exit hook.
+  const r = spawnSync(process.execPath, ['-r', path.join(__dirname, 'peak-rss.js'), bin, ...args], { encoding: 'utf8', maxBuffer: 1 << 30 });
+  const s = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`remap ${args.join(' ')} failed: ${r.stderr}`);
+  const m = /peak-rss (\d+)/.exec(r.stderr);
+  return { s, mb: m ? Number(m[1]) / 1024 : NaN };
+}
+
+function writeColumns(file: string, cols: Float64Array[], names: string[]): void {
+  const lines: string[] = [names.join(',')];
+  for (let i = 0; i < N; i++) lines.push(cols.map((c) => String(c[i])).join(','));
+  fs.writeFileSync(file, lines.join('\n') + '\n');
+}
+
+function readOnce(...files: string[]): number {
+  const t0 = performance.now();
+  for (const f of files) fs.readFileSync(f, 'utf8');
   return (performance.now() - t0) / 1000;
 }
 
 async function main(): Promise<void> {
   const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'remap-bench-'));
+  const f = (name: string) => path.join(dir, name);
   const r = new Random(5);
   const s = Float64Array.from({ length: N }, () => r.normal());
   const t = Float64Array.from({ length: N }, () => Math.exp(r.normal()));
-  fs.writeFileSync(path.join(dir, 's.csv'), 'x\n' + Array.from(s, String).join('\n') + '\n');
-  fs.writeFileSync(path.join(dir, 't.csv'), 'x\n' + Array.from(t, String).join('\n') + '\n');
-  console.log(`load average before: ${os.loadavg().map((v) => v.toFixed(2)).join(' ')}`);
-  const methods = Math.min(run(['methods']), run(['methods']), run(['methods']));
+  writeColumns(f('s.csv'), [s], ['x']);
+  writeColumns(f('t.csv'), [t], ['x']);
+  const D = 5;
+  const s5 = Array.from({ length: D }, () => Float64Array.from({ length: N }, () => r.normal()));
+  const t5 = Array.from({ length: D }, (_, k) => Float64Array.from({ length: N }, () => 2 * r.normal() + k));
+  const names5 = Array.from({ length: D }, (_, k) => `c${k + 1}`);
+  writeColumns(f('s5.csv'), s5, names5);
+  writeColumns(f('t5.csv'), t5, names5);
+  console.log(`load average before: ${load()}`);
+  const methods = Math.min(run(['methods']).s, run(['methods']).s, run(['methods']).s);
   console.log(`remap methods                 ${methods.toFixed(2)} s  (goal <= 0.3 s)`);
-  const t0 = performance.now();
-  fs.readFileSync(path.join(dir, 's.csv'), 'utf8');
-  fs.readFileSync(path.join(dir, 't.csv'), 'utf8');
-  const read = (performance.now() - t0) / 1000;
-  const t1 = performance.now();
-  const map = await fitMap('quantile', { n: N, d: 1, data: s, weights: null }, { n: N, d: 1, data: t, weights: null });
-  const fitE = (performance.now() - t1) / 1000;
-  const t2 = performance.now();
-  map.apply({ n: N, d: 1, data: Float64Array.from(s).reverse() });
-  const applyE = (performance.now() - t2) / 1000;
-  const fit = run(['fit', '--source', path.join(dir, 's.csv'), '--target', path.join(dir, 't.csv'), '--out', path.join(dir, 'm.json')]);
-  const apply = run(['apply', '--model', path.join(dir, 'm.json'), '--input', path.join(dir, 's.csv'), '--out', path.join(dir, 'y.csv')]);
-  console.log(`reading both files once       ${read.toFixed(2)} s`);
-  console.log(`engine fit / apply            ${fitE.toFixed(2)} s / ${applyE.toFixed(2)} s`);
-  console.log(`remap fit (whole process)     ${fit.toFixed(2)} s  ${(fit / (fitE + read)).toFixed(1)}x engine + read (goal <= 3x)`);
-  console.log(`remap apply (whole process)   ${apply.toFixed(2)} s  ${(apply / (applyE + read / 2)).toFixed(1)}x engine + read (goal <= 3x)`);
-  console.log(`load average after: ${os.loadavg().map((v) => v.toFixed(2)).join(' ')}`);
+
+  const cases = [
+    { label: '1 column, quantile', method: 'quantile', d: 1, src: s, tgt: t, files: ['s.csv', 't.csv'] },
+    { label: '5 columns, linear', method: 'linear', d: D, src: interleave(s5), tgt: interleave(t5), files: ['s5.csv', 't5.csv'] },
+  ];
+  for (const c of cases) {
+    const read2 = readOnce(f(c.files[0]), f(c.files[1]));
+    const read1 = readOnce(f(c.files[0]));
+    const t1 = performance.now();
+    const map = await fitMap(c.method, { n: N, d: c.d, data: c.src, weights: null }, { n: N, d: c.d, data: c.tgt, weights: null });
+    const fitE = (performance.now() - t1) / 1000;
+    const t2 = performance.now();
+    // The rows in another order than fitted: the engine then does the full work of an unseen input.
+    map.apply({ n: N, d: c.d, data: reverseRows(c.src, c.d) });
+    const applyE = (performance.now() - t2) / 1000;
+    map.dispose();
+    const fit = run(['fit', '--method', c.method, '--source', f(c.files[0]), '--target', f(c.files[1]), '--out', f('m.json')]);
+    const apply = run(['apply', '--model', f('m.json'), '--input', f(c.files[0]), '--out', f('y.csv')]);
+    console.log(`${c.label}: file ${(fs.statSync(f(c.files[0])).size / 1e6).toFixed(0)} MB; load ${load()}`);
+    console.log(`  reading the file(s) once    ${read2.toFixed(2)} s (both) / ${read1.toFixed(2)} s (one)`);
+    console.log(`  engine fit / apply          ${fitE.toFixed(2)} s / ${applyE.toFixed(2)} s`);
+    console.log(`  remap fit (whole process)   ${fit.s.toFixed(2)} s  ${(fit.s / (fitE + read2)).toFixed(1)}x engine + read (goal <= 3x), peak ${fit.mb.toFixed(0)} MB`);
+    console.log(`  remap apply (whole process) ${apply.s.toFixed(2)} s  ${(apply.s / (applyE + read1)).toFixed(1)}x engine + read (goal <= 3x), peak ${apply.mb.toFixed(0)} MB`);
+  }
+  console.log(`load average after: ${load()}`);
   fs.rmSync(dir, { recursive: true, force: true });
+}
+
+function interleave(cols: Float64Array[]): Float64Array {
+  const d = cols.length;
+  const out = new Float64Array(N * d);
+  for (let i = 0; i < N; i++) for (let k = 0; k < d; k++) out[i * d + k] = cols[k][i];
+  return out;
 }
 
 main().catch((e) => {
   console.error(e);
   process.exit(1);
 });
+
+function reverseRows(x: Float64Array, d: number): Float64Array {
+  const out = new Float64Array(x.length);
+  for (let i = 0; i < N; i++) for (let k = 0; k < d; k++) out[(N - 1 - i) * d + k] = x[i * d + k];
+  return out;
+}

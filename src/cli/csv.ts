@@ -90,8 +90,8 @@ export function csvCell(field: string): number | string | null {
   return field;
 }
 
-/** Quotes a field when it holds a comma, quote or line break. */
-function quote(field: string): string {
+/** Quotes a field when it holds a comma, quote or line break. @example quoteField('a,b') // '"a,b"' */
+export function quoteField(field: string): string {
   return /[",\r\n]/.test(field) ? `"${field.replace(/"/g, '""')}"` : field;
 }
 
@@ -102,7 +102,7 @@ function quote(field: string): string {
 export function formatCSV(rows: ReadonlyArray<ReadonlyArray<string | number | boolean | null>>): string {
   let out = '';
   for (const r of rows) {
-    out += r.map((v) => (v === null ? '' : typeof v === 'number' ? String(v) : quote(String(v)))).join(',') + '\n';
+    out += r.map((v) => (v === null ? '' : typeof v === 'number' ? String(v) : quoteField(String(v)))).join(',') + '\n';
   }
   return out;
 }

@@ -1,6 +1,6 @@
 import { RemapError, isRemapError } from '../engine/errors';
 import { chooseMethod } from '../engine/auto';
-import type { TransportMap } from '../engine/map';
+import type { Mapped, TransportMap } from '../engine/map';
 import { parseMapJSON } from '../engine/map-json';
 import { extrapolationWarning } from '../engine/outside';
 import { getMethod, listMethods, restoreMap, settingSpecs, startFit } from '../engine/methods';
@@ -8,6 +8,9 @@ import { parseSettingsText } from '../engine/settings';
 import { CellError, type CellIn } from '../input/cells';
 import { readSample, readValues, writeValues, type ReadSample } from '../input/coerce';
 import { csvCell, formatCSV, parseCSV } from './csv';
+import { scanNumericCSV } from './numeric-csv';
+import { mapTable } from './numeric-map-file';
+import { sampleFromTable } from './numeric-sample';
 import { CommandUsageError, MORE_COMMANDS, runMoreCommand } from './more-commands';
 import { DIALECT_FLAGS, MOMENT_FLAGS, route, SQL_FLAGS, SQL_SUMMARY } from './route';
 
@@ -94,13 +97,16 @@ interface Table {
   readonly rows: CellIn[][];
 }
 
-function readTable(io: CliIO, path: string): Table {
-  let text: string;
+function readText(io: CliIO, path: string): string {
   try {
-    text = io.readFile(path);
+    return io.readFile(path);
   } catch (e) {
     throw new RemapError(`cannot read ${path} (${(e as NodeJS.ErrnoException).code ?? (e as Error).message}); check the path.`);
   }
+}
+
+/** The general reader: every field a cell. The typed-array reader (numeric-csv.ts) reads the usual files; this one words the errors. */
+function readTable(path: string, text: string): Table {
   const rows = parseCSV(text, path);
   if (rows.length === 0) throw new RemapError(`${path} is empty; it needs a header row and rows of numbers.`);
   const header = rows[0].map((h) => h.trim());
@@ -142,8 +148,12 @@ function dataColumns(t: Table, columns: string | undefined, exclude: number[]): 
 }
 
 function readSide(io: CliIO, path: string, name: 'source' | 'target', flags: Record<string, string>, fn: string): ReadSample & { header: string[] } {
-  const t = readTable(io, path);
+  const text = readText(io, path);
   const wFlag = flags[`${name}-weights`];
+  const table = scanNumericCSV(text, path);
+  const fast = table && sampleFromTable(table, { columns: flags.columns, weights: wFlag });
+  if (fast) return fast;
+  const t = readTable(path, text);
   const wk = wFlag !== undefined ? columnIndex(t, wFlag, `--${name}-weights`) : -1;
   const cols = dataColumns(t, flags.columns, wk >= 0 ? [wk] : []);
   const cells = t.rows.map((r) => cols.map((k) => r[k]));
@@ -202,11 +212,9 @@ function loadModel(io: CliIO, path: string): TransportMap {
   return restoreMap(parseMapJSON(text));
 }
 
-/** Maps the columns of an input CSV the model knows, passing other columns through unchanged. */
-function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'invert'): void {
-  const map = loadModel(io, need(flags, 'model', command));
-  const inputPath = need(flags, 'input', command);
-  const t = readTable(io, inputPath);
+/** apply / invert through the general reader: every field a cell, errors worded per cell. */
+function mapCells(map: TransportMap, t: Table, command: 'apply' | 'invert'): { csv: string; mapped: Mapped } {
+  const inputPath = t.name;
   const names = map.diagnostics().columns;
   let cols: number[];
   if (names && names.every((c) => t.header.includes(c))) cols = names.map((c) => t.header.indexOf(c));
@@ -237,7 +245,16 @@ function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'i
     }
     out.push(row);
   }
-  const csv = formatCSV(out);
+  return { csv: formatCSV(out), mapped };
+}
+
+/** Maps the columns of an input CSV the model knows, passing other columns through unchanged. */
+function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'invert'): void {
+  const map = loadModel(io, need(flags, 'model', command));
+  const inputPath = need(flags, 'input', command);
+  const text = readText(io, inputPath);
+  const table = scanNumericCSV(text, inputPath);
+  const { csv, mapped } = (table && mapTable(table, map, command)) ?? mapCells(map, readTable(inputPath, text), command);
   if (flags.out) io.writeFile(flags.out, csv);
   else io.stdout(csv);
   // This call's own rows outside the fitted range, worded by what the method does there (not by the tails setting alone).
