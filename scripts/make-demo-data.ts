@@ -4,7 +4,8 @@
  * Scenarios (all invented for Remap's demos):
  * 1. Survey waves: two independent waves of the "Harbourside Living Conditions Survey" (a repeated cross-section). Wave 2 used a new
  *    questionnaire: income was asked net of a levy (lower, more compressed) and the 0-10
- *    satisfaction question had friendlier wording (scores drift up). Each row has a survey weight.
+ *    satisfaction question had friendlier wording (scores drift up). Each row has a survey weight and a region (Harbour, Hillside,
+ *    Riverside, Outskirts), drawn from a stream of its own (seed + 1) after the other columns, so adding it changed no other number.
  * 2. Scenario alignment: 5,000 scenarios of three risk factors from an in-house model,
  *    and a reference set of 5,000 with fatter tails, skew and stronger dependence.
  * 3. Quick what-if: monthly sales per store in two regions, North and South. */
@@ -31,7 +32,20 @@ function surveyWave(seed: number, n: number, wave: 1 | 2): (string | number)[][]
     const weight = round(0.4 + 1.6 * r.uniform() + (z < -0.8 ? 0.8 : 0), 3);
     rows.push([`W${wave}-${String(i + 1).padStart(4, '0')}`, Math.round(income / 10) * 10, score, weight]);
   }
-  return rows;
+  return withRegion(rows, seed + 1);
+}
+
+/** The invented regions: richer households lean to Harbour, poorer ones to the Outskirts (so harmonising within region matters). */
+const REGIONS = ['Harbour', 'Hillside', 'Riverside', 'Outskirts'] as const;
+
+function withRegion(rows: (string | number)[][], seed: number): (string | number)[][] {
+  const r = new Random(seed);
+  return rows.map((row, i) => {
+    if (i === 0) return [...row, 'region'];
+    const lean = Math.max(-0.45, Math.min(0.45, 0.35 * Math.log((row[1] as number) / 33_000)));
+    const u = Math.min(0.999, Math.max(0, r.uniform() - lean));
+    return [...row, REGIONS[Math.floor(u * REGIONS.length)]];
+  });
 }
 
 function scenarios(seed: number, n: number, reference: boolean): (string | number)[][] {

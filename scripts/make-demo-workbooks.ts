@@ -11,7 +11,8 @@ import * as fs from 'fs';
 import * as path from 'path';
 import { Workbook, type Worksheet } from 'exceljs';
 import { parseCSV, csvCell } from '../src/cli/csv';
-import { REPORT_ROWS } from '../src/headless/remap-plugin';
+import { normalQuantile } from '../src/engine/uncertainty/normal-quantile';
+import { GROUP_REPORT_ROWS, REPORT_ROWS } from '../src/headless/remap-plugin';
 import type { PlotSpec } from '../src/headless/plot-spec';
 import { a1, parseA1 } from '../src/headless/workbook-io';
 
@@ -94,23 +95,43 @@ function surveyWaves(): Workbook {
   const e1 = n1 + 1;
   const e2 = n2 + 1;
   const wb = newWorkbook();
-  about(wb, 'Harbourside Living Conditions Survey (two independent waves): putting wave 2 on wave 1\'s scale (invented data)', [
+  about(wb, "Harbourside Living Conditions Survey (two independent waves): putting wave 2 on wave 1's scale (invented data)", [
     'The Harbourside Living Conditions Survey is an invented survey; each wave is an independent sample of households (a repeated cross-section, not a panel). Wave 2 used a new questionnaire: income was asked net of a levy, so it came out lower and more compressed, and the 0-10 satisfaction question got friendlier wording, so scores drifted up. The households are different people in each wave, so there are no pairs to match: only the two distributions.',
-    'Sheet Wave2, column F, holds each wave-2 income on wave 1\'s scale: the continuous quantile map, with both waves\' survey weights honoured. A household at wave 2\'s weighted 30th percentile gets wave 1\'s weighted 30th-percentile income:',
+    "Sheet Wave2, column F, holds each wave-2 income on wave 1's scale: the continuous quantile map, with both waves' survey weights honoured. A household at wave 2's weighted 30th percentile gets wave 1's weighted 30th-percentile income:",
     `=REMAP.VALUES(B2:B${e2}, B2:B${e2}, Wave1!B2:B${e1}, "quantile", , D2:D${e2}, Wave1!D2:D${e1})`,
     'Column G does the same for the satisfaction score with the ordinal method (equipercentile equating of whole-number scores, Kolen & Brennan), again with the weights:',
     `=REMAP.VALUES(C2:C${e2}, C2:C${e2}, Wave1!C2:C${e1}, "ordinal", , D2:D${e2}, Wave1!D2:D${e1})`,
     'Sheet Check compares weighted means and medians before and after, gives REMAP.COST (how far wave 2 had to move, as a squared 2-Wasserstein distance), and fits the same two maps with REMAP.FIT so that REMAP.REPORT can list their diagnostics: rows used, cost, how close the mapped wave 2 came to wave 1 (energy distance, KS) and any warnings.',
     'Things to try: change a weight in Wave2!D and watch the harmonised incomes move; replace "quantile" with "step" to get only values that occur in wave 1.',
+    "Within region. Column E of both waves holds the household's region (Harbour, Hillside, Riverside, Outskirts). Wave2!H harmonises income within region: one quantile map per region, fitted on that region's rows of both waves, each household mapped by its own region's map:",
+    `=REMAP.BYGROUP(B2:B${e2}, E2:E${e2}, B2:B${e2}, E2:E${e2}, Wave1!B2:B${e1}, Wave1!E2:E${e1}, "quantile", , D2:D${e2}, Wave1!D2:D${e1})`,
+    'Sheet Regions fits the same maps once with REMAP.FITGROUPS and lists every region with REMAP.GROUPREPORT: rows and Kish effective rows per wave, the squared W2 cost and warnings. A region with too few rows would be an error naming it; the last argument "pooled" would let the map of all rows stand in, with a warning.',
+    "How far to trust a harmonised income. Sheet Bounds gives, for a grid of wave-2 incomes, the value on wave 1's scale with 95 % bounds from 1,000 seeded bootstrap replicates that resample both waves with their weights (same seed, same bounds):",
+    `=REMAP.BOUNDS(Bounds!A3:A11, Wave2!B2:B${e2}, Wave1!B2:B${e1}, "quantile", "seed=7", Wave2!D2:D${e2}, Wave1!D2:D${e1})`,
+    "A published table as the target. Sheet Agency holds an invented statistics office's published income deciles for the wave-1 year (probability, value). Wave2!I maps wave-2 incomes onto that table (its quantile function read as a straight line between deciles; below the 10th and above the 90th percentile the end deciles hold, and the report would warn of that):",
+    `=REMAP.TOTABLE(B2:B${e2}, B2:B${e2}, Agency!A2:B10, "quantiles", , , D2:D${e2})`,
   ]);
-  dataSheet(wb, 'Wave1', w1, [12, 12, 13, 10]);
-  const ws2 = dataSheet(wb, 'Wave2', w2, [12, 12, 13, 10, 3, 22, 22]);
+  dataSheet(wb, 'Wave1', w1, [12, 12, 13, 10, 12]);
+  const ws2 = dataSheet(wb, 'Wave2', w2, [12, 12, 13, 10, 12, 22, 22, 26, 26]);
   label(ws2, 'F1', 'income on wave 1 scale');
   label(ws2, 'G1', 'satisfaction on wave 1 scale');
   formula(ws2, 'F2', `REMAP.VALUES(B2:B${e2}, B2:B${e2}, Wave1!B2:B${e1}, "quantile", , D2:D${e2}, Wave1!D2:D${e1})`, n2, 1);
   formula(ws2, 'G2', `REMAP.VALUES(C2:C${e2}, C2:C${e2}, Wave1!C2:C${e1}, "ordinal", , D2:D${e2}, Wave1!D2:D${e1})`, n2, 1);
   ws2.getColumn(6).numFmt = '#,##0';
   ws2.getColumn(7).numFmt = '0.00';
+  label(ws2, 'H1', 'income on wave 1 scale within region');
+  formula(
+    ws2,
+    'H2',
+    `REMAP.BYGROUP(B2:B${e2}, E2:E${e2}, B2:B${e2}, E2:E${e2}, Wave1!B2:B${e1}, Wave1!E2:E${e1}, "quantile", , D2:D${e2}, Wave1!D2:D${e1})`,
+    n2,
+    1,
+  );
+  label(ws2, 'I1', 'income on the agency deciles');
+  formula(ws2, 'I2', `REMAP.TOTABLE(B2:B${e2}, B2:B${e2}, Agency!A2:B10, "quantiles", , , D2:D${e2})`, n2, 1);
+  ws2.getColumn(8).numFmt = '#,##0';
+  ws2.getColumn(9).numFmt = '#,##0';
+  harmoniseSheets(wb, e1, e2);
 
   const ck = wb.addWorksheet('Check');
   ck.getColumn(1).width = 44;
@@ -151,6 +172,53 @@ function surveyWaves(): Workbook {
   return wb;
 }
 
+/** Wave-2 incomes whose harmonised value the Bounds sheet bounds (design choice: a spread from the low to the high tail). */
+export const BOUND_INCOMES = [12_000, 16_000, 20_000, 24_000, 28_000, 33_000, 40_000, 50_000, 70_000];
+
+/**
+ * The invented agency's published deciles of wave-1-year income: the deciles of the log-normal the wave-1 incomes were drawn from
+ * (exp(10.4 + 0.55 z), scripts/make-demo-data.ts), rounded to 100 as an office would publish them.
+ */
+export const AGENCY_DECILES: readonly [number, number][] = [0.1, 0.2, 0.3, 0.4, 0.5, 0.6, 0.7, 0.8, 0.9].map((p) => [
+  p,
+  Math.round(Math.exp(10.4 + 0.55 * normalQuantile(p)) / 100) * 100,
+]);
+
+/** The survey workbook's sheets for maps by region, bounds, and the agency's published deciles. */
+function harmoniseSheets(wb: Workbook, e1: number, e2: number): void {
+  const rg = wb.addWorksheet('Regions');
+  rg.getColumn(1).width = 26;
+  [14, 14, 20, 20, 16, 18, 60].forEach((w, i) => (rg.getColumn(i + 2).width = w));
+  label(rg, 'A1', 'income maps by region (handle)');
+  formula(rg, 'B1', `REMAP.FITGROUPS(Wave2!B2:B${e2}, Wave2!E2:E${e2}, Wave1!B2:B${e1}, Wave1!E2:E${e1}, "quantile", , Wave2!D2:D${e2}, Wave1!D2:D${e1})`);
+  label(rg, 'A2', 'REMAP.GROUPREPORT(B1): every region');
+  formula(rg, 'A3', 'REMAP.GROUPREPORT(B1)', GROUP_REPORT_ROWS, 8);
+
+  const bd = wb.addWorksheet('Bounds');
+  [18, 22, 16, 16].forEach((w, i) => (bd.getColumn(i + 1).width = w));
+  label(bd, 'A1', 'harmonised income with 95 % bounds (bootstrap, 1,000 replicates, seed 7)');
+  ['wave 2 income', 'on wave 1 scale', 'lower', 'upper'].forEach((t, i) => label(bd, `${'ABCD'[i]}2`, t));
+  BOUND_INCOMES.forEach((v, i) => (bd.getCell(`A${i + 3}`).value = v));
+  formula(bd, 'B3', `REMAP.BOUNDS(A3:A11, Wave2!B2:B${e2}, Wave1!B2:B${e1}, "quantile", "seed=7", Wave2!D2:D${e2}, Wave1!D2:D${e1})`, BOUND_INCOMES.length, 3);
+  for (const c of [1, 2, 3, 4]) bd.getColumn(c).numFmt = '#,##0';
+
+  const ag = wb.addWorksheet('Agency');
+  [14, 14, 80].forEach((w, i) => (ag.getColumn(i + 1).width = w));
+  label(ag, 'A1', 'probability');
+  label(ag, 'B1', 'value');
+  AGENCY_DECILES.forEach(([p, v], i) => {
+    ag.getCell(`A${i + 2}`).value = p;
+    ag.getCell(`B${i + 2}`).value = v;
+  });
+  ag.getColumn(2).numFmt = '#,##0';
+  label(
+    ag,
+    'C1',
+    "An invented statistics office's published income deciles for the wave-1 year (invented: the deciles of the curve wave 1 was drawn from).",
+    false,
+  );
+}
+
 /** 2. Model scenarios aligned to a reference set by three methods. */
 function scenarioAlignment(): Workbook {
   const model = readData('scenarios-model.csv');
@@ -161,16 +229,20 @@ function scenarioAlignment(): Workbook {
   const wb = newWorkbook();
   const fits: [string, string, string][] = [
     ['linear', `REMAP.FIT(Model!A2:C${e}, Reference!A2:C${e}, "linear")`, `REMAP.COST(Model!A2:C${e}, Reference!A2:C${e}, "linear")`],
-    ['entropic', `REMAP.FIT(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`, `REMAP.COST(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`],
+    [
+      'entropic',
+      `REMAP.FIT(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`,
+      `REMAP.COST(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`,
+    ],
     [
       'gradient-net',
       `REMAP.FIT(Model!A2:C${e}, Reference!A2:C${e}, "gradient-net", "${DEMO_GRADIENT_NET_SETTINGS}")`,
       `REMAP.COST(Model!A2:C${e}, Reference!A2:C${e}, "gradient-net", "${DEMO_GRADIENT_NET_SETTINGS}")`,
     ],
   ];
-  about(wb, 'Aligning a model\'s scenarios to a reference set (invented data)', [
+  about(wb, "Aligning a model's scenarios to a reference set (invented data)", [
     `An in-house model produced ${n.toLocaleString('en-US')} invented scenarios of three risk factors (a rate shock in basis points, an equity return in percent, a credit spread change in basis points). A reference set of the same size has fatter tails, a skewed equity factor and stronger joint moves in stress. The aim: move each model scenario so that the set as a whole looks like the reference, jointly, not one column at a time, while keeping the order of scenarios (a monotone map).`,
-    'Sheet Fits fits three maps side by side with REMAP.FIT and gives each one\'s cost with REMAP.COST:',
+    "Sheet Fits fits three maps side by side with REMAP.FIT and gives each one's cost with REMAP.COST:",
     ...fits.map((f) => `=${f[1]}`),
     `linear matches means and covariances (the Gaussian map, closed form). entropic follows the whole joint shape (Sinkhorn and the entropic map); its kernel grows with rows squared, so this demo fits it on the first ${DEMO_ENTROPIC_ROWS.toLocaleString('en-US')} scenarios of each set and then applies it to all ${n.toLocaleString('en-US')}. gradient-net trains a neural map that is monotone by construction; its settings here ("${DEMO_GRADIENT_NET_SETTINGS}") are kept modest so the demo runs in about a minute; more steps fit better.`,
     'Sheet Aligned applies each map to every model scenario with REMAP.APPLY, e.g. =REMAP.APPLY(Fits!B2, Model!A2:C' + e + ').',
@@ -219,13 +291,17 @@ function whatIf(): Workbook {
   const eS = south.length;
   const nN = eN - 1;
   const wb = newWorkbook();
-  about(wb, 'What if North\'s stores sold like South\'s? (invented data)', [
+  about(wb, "What if North's stores sold like South's? (invented data)", [
     `Monthly sales of ${nN} invented stores in the North region and ${eS - 1} in the South. The South's distribution has a different shape (a long plateau of mid-sized stores). The question: what would each North store's sales be if the North had the South's distribution but every store kept its rank?`,
     'Sheet WhatIf fits the map once and keeps its handle in B1:',
     `=REMAP.FIT(North!B2:B${eN}, South!B2:B${eS})`,
-    'Sheet North, column C applies it to every store (=REMAP.APPLY(WhatIf!B1, B2:B' + eN + ')) and column D maps those values back with the inverse (=REMAP.INVERT(WhatIf!B1, C2:C' + eN + ')), which gives the original sales again; WhatIf!B4 checks that the round trip is exact.',
+    'Sheet North, column C applies it to every store (=REMAP.APPLY(WhatIf!B1, B2:B' +
+      eN +
+      ')) and column D maps those values back with the inverse (=REMAP.INVERT(WhatIf!B1, C2:C' +
+      eN +
+      ')), which gives the original sales again; WhatIf!B4 checks that the round trip is exact.',
     'WhatIf also answers one-off questions: what a North store selling 62,000 would sell in the South (=REMAP.APPLY(B1, 62000)), and what a South store selling 100,000 would be in the North (=REMAP.INVERT(B1, 100000)). The percentile table compares North, North re-shaped, and South; the middle and right columns agree up to interpolation.',
-    'REMAP.REPORT(B1) at the bottom lists the map\'s diagnostics. Try typing another value in B6 or B7.',
+    "REMAP.REPORT(B1) at the bottom lists the map's diagnostics. Try typing another value in B6 or B7.",
   ]);
   const wn = dataSheet(wb, 'North', north, [10, 16, 18, 18]);
   label(wn, 'C1', 'as if in the South');
@@ -281,7 +357,7 @@ export const DEMO_WORKBOOKS: readonly DemoWorkbook[] = [
       {
         file: 'survey-income-ecdf.svg',
         kind: 'ecdf',
-        title: 'Income: wave 2 on wave 1\'s scale (weighted)',
+        title: "Income: wave 2 on wave 1's scale (weighted)",
         xLabel: 'income',
         series: [
           { name: 'wave 1', range: 'Wave1!B2:B1201', weights: 'Wave1!D2:D1201' },
@@ -302,7 +378,7 @@ export const DEMO_WORKBOOKS: readonly DemoWorkbook[] = [
       {
         file: 'survey-satisfaction-histogram.svg',
         kind: 'histogram',
-        title: 'Satisfaction (0-10): wave 2 on wave 1\'s scale (weighted)',
+        title: "Satisfaction (0-10): wave 2 on wave 1's scale (weighted)",
         bins: 11,
         range: [-0.5, 10.5],
         xLabel: 'score',

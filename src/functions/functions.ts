@@ -2,6 +2,9 @@
  * tooltips (functions.json is generated from it) and one guarded call into
  * calls.ts; no numeric logic lives here. */
 import * as calls from './calls';
+import * as boundsCall from './bounds-call';
+import * as groupCalls from './group-calls';
+import * as tableCall from './table-call';
 import { guard, toSheetError } from './excel-errors';
 import { fitInThisThread, setFitter, setKeeper, type Fitter } from '../fits';
 import { workerFitter } from '../fits/worker/worker-fitter';
@@ -183,6 +186,157 @@ export function pairs(source: any[][], target: any[][], output?: any, invocation
  */
 export function load(json: any): string {
   return guard(() => calls.load(json)) as unknown as string;
+}
+
+/**
+ * For each value, the mapped value and a lower and upper bound at a level (default 95 %): three columns per value (mapped, lower, upper). A seeded
+ * bootstrap resamples both samples (settings seed=..., replicates=..., default 0 and 1000), or the survey's replicate weights are used when given.
+ * Methods quantile, step, ordinal and linear.
+ * @customfunction BOUNDS
+ * @param values One column of values to map (one row per point for several columns).
+ * @param source The source sample.
+ * @param target The target sample, with the same columns.
+ * @param [method] "quantile" (default for one column), "step", "ordinal" or "linear".
+ * @param [settings] The method's settings and the bounds' own: seed, replicates, fay (Fay's factor for brr), multiplier (custom), shared=yes.
+ * @param [source_weights] One non-negative weight per source row.
+ * @param [target_weights] One non-negative weight per target row.
+ * @param [level] Nominal coverage between 0 and 1 (default 0.95).
+ * @param [replicates_source] The source's replicate weights: one column per replicate, one row per source row.
+ * @param [replicates_target] The target's replicate weights, likewise.
+ * @param [replicate_kind] "bootstrap" (default), "jackknife", "brr" or "custom": how the replicate weights were made.
+ * @returns Mapped value, lower bound and upper bound per value.
+ */
+export function bounds(
+  values: any[][],
+  source: any[][],
+  target: any[][],
+  method?: any,
+  settings?: any,
+  source_weights?: any[][],
+  target_weights?: any[][],
+  level?: any,
+  replicates_source?: any[][],
+  replicates_target?: any[][],
+  replicate_kind?: any,
+): any[][] {
+  return guard(() =>
+    boundsCall.bounds(values, source, target, method, settings, source_weights, target_weights, level, replicates_source, replicates_target, replicate_kind),
+  ) as unknown as any[][];
+}
+
+/**
+ * Maps values within their groups (region, wave, age band): one map per group, fitted from the source and target rows of that group, and each value
+ * mapped by its own group's map. A group lacking rows is an error naming it unless fallback is "pooled".
+ * @customfunction BYGROUP
+ * @param values One column of values (one row per point for several columns).
+ * @param value_groups The group of each value: one cell per row, as tall as values.
+ * @param source The source sample.
+ * @param source_groups The group of each source row, as tall as source.
+ * @param target The target sample, with the same columns.
+ * @param target_groups The group of each target row, as tall as target.
+ * @param [method] Any method name; "quantile" is the default for one column.
+ * @param [settings] Settings as text or a two-column range, the same for every group.
+ * @param [source_weights] One non-negative weight per source row.
+ * @param [target_weights] One non-negative weight per target row.
+ * @param [fallback] "none" (default) or "pooled": the map fitted on all rows stands in for groups lacking rows, with a warning.
+ * @returns The values mapped within their groups.
+ */
+export function bygroup(
+  values: any[][],
+  value_groups: any[][],
+  source: any[][],
+  source_groups: any[][],
+  target: any[][],
+  target_groups: any[][],
+  method?: any,
+  settings?: any,
+  source_weights?: any[][],
+  target_weights?: any[][],
+  fallback?: any,
+): any[][] {
+  return guard(() =>
+    groupCalls.byGroup(values, value_groups, source, source_groups, target, target_groups, method, settings, source_weights, target_weights, fallback),
+  ) as unknown as any[][];
+}
+
+/**
+ * Fits one map per group and returns a handle for them all, for REMAP.APPLYGROUPS and REMAP.GROUPREPORT.
+ * @customfunction FITGROUPS
+ * @param source The source sample.
+ * @param source_groups The group of each source row, as tall as source.
+ * @param target The target sample, with the same columns.
+ * @param target_groups The group of each target row, as tall as target.
+ * @param [method] Any method name; "quantile" is the default for one column.
+ * @param [settings] Settings as text or a two-column range, the same for every group.
+ * @param [source_weights] One non-negative weight per source row.
+ * @param [target_weights] One non-negative weight per target row.
+ * @param [fallback] "none" (default) or "pooled".
+ * @returns A handle naming the maps by group.
+ */
+export function fitgroups(
+  source: any[][],
+  source_groups: any[][],
+  target: any[][],
+  target_groups: any[][],
+  method?: any,
+  settings?: any,
+  source_weights?: any[][],
+  target_weights?: any[][],
+  fallback?: any,
+): string {
+  return guard(() =>
+    groupCalls.fitGroups(source, source_groups, target, target_groups, method, settings, source_weights, target_weights, fallback),
+  ) as unknown as string;
+}
+
+/**
+ * Applies maps by group to values, each by its own group's map (or the inverse).
+ * @customfunction APPLYGROUPS
+ * @param model The cell holding REMAP.FITGROUPS's handle.
+ * @param values One column of values (one row per point for several columns).
+ * @param groups The group of each value, as tall as values.
+ * @param [direction] "apply" (default) or "invert".
+ * @returns The mapped values.
+ */
+export function applygroups(model: any, values: any[][], groups: any[][], direction?: any): any[][] {
+  return guard(() => groupCalls.applyGroups(model, values, groups, direction)) as unknown as any[][];
+}
+
+/**
+ * Every group of a map by group: rows and effective rows per side, cost, whether the pooled map stood in, warnings; then all groups together.
+ * @customfunction GROUPREPORT
+ * @param model The cell holding REMAP.FITGROUPS's handle.
+ * @returns A table with a header row.
+ */
+export function groupreport(model: any): any[][] {
+  return guard(() => groupCalls.groupReport(model)) as unknown as any[][];
+}
+
+/**
+ * Maps values from a source sample onto a distribution published as a table. A quantile table (probability 0..1, value) is read as a straight line
+ * between its points; beyond its first and last probability its end values hold. A frequency table (value, count or share) is the values written out.
+ * @customfunction TOTABLE
+ * @param values Cells to map (one column of the source's kind).
+ * @param source The source sample: one column.
+ * @param table Two columns: probability and value (quantiles), or value and count or share (frequencies); a header row is skipped.
+ * @param [table_kind] "quantiles" (default) or "frequencies".
+ * @param [method] "quantile" (default; the only one for a quantile table), "step" or "ordinal" for a frequency table.
+ * @param [settings] Settings as text or a two-column range, e.g. "tails=linear".
+ * @param [source_weights] One non-negative weight per source row.
+ * @param [beyond] "hold" (default: keep the table's end values) or "extend" (continue its end steps, an extrapolation).
+ * @returns The mapped values, in the shape of values.
+ */
+export function totable(
+  values: any[][],
+  source: any[][],
+  table: any[][],
+  table_kind?: any,
+  method?: any,
+  settings?: any,
+  source_weights?: any[][],
+  beyond?: any,
+): any[][] {
+  return guard(() => tableCall.toTable(values, source, table, table_kind, method, settings, source_weights, beyond)) as unknown as any[][];
 }
 
 /**

@@ -9,6 +9,9 @@ import {
   type ImplementedFunctions,
 } from 'hyperformula';
 import * as calls from '../functions/calls';
+import { bounds } from '../functions/bounds-call';
+import * as groupCalls from '../functions/group-calls';
+import { toTable } from '../functions/table-call';
 import type { CellIn } from '../input/cells';
 import { guard, setErrorFactory } from '../functions/excel-errors';
 import { argFromHf, cellToHf, gridToHf, hfErrorFactory } from './hf-values';
@@ -37,6 +40,9 @@ import { cellKey, currentRun } from './run-context';
 /** Rows reserved for a REMAP.REPORT table (two columns: label, value). */
 export const REPORT_ROWS = 40;
 
+/** Rows reserved for a REMAP.GROUPREPORT table (a header, the groups, all groups, warnings; design choice: 30 groups at most show). */
+export const GROUP_REPORT_ROWS = 34;
+
 const any = (optional = false): FunctionArgument => ({ argumentType: FunctionArgumentType.ANY, ...(optional ? { optionalArg: true } : {}) });
 const params = (required: number, optional: number): FunctionArgument[] => [
   ...Array.from({ length: required }, () => any()),
@@ -62,6 +68,12 @@ const shapeOf =
     return s ? [Math.max(1, s.height), Math.max(1, s.width)] : [1, 1];
   };
 
+/** REMAP.BOUNDS: a row per values row, three columns (mapped, lower, upper) per values column. */
+const boundsSize: SizeOf = (sizes) => {
+  const s = sizes[0];
+  return s ? [Math.max(1, s.height), 3 * Math.max(1, s.width)] : [1, 3];
+};
+
 const pairsSize: SizeOf = (sizes, literals) => {
   const s = sizes[0];
   if (!s) return [1, 1];
@@ -84,6 +96,24 @@ export const REMAP_FUNCTIONS: Readonly<Record<string, Spec>> = {
   'REMAP.SAVE': { method: 'save', parameters: params(1, 0), impl: calls.save as Impl },
   'REMAP.PAIRS': { method: 'pairs', sizeMethod: 'pairsSize', parameters: params(2, 1), impl: calls.pairs as Impl, size: pairsSize },
   'REMAP.LOAD': { method: 'load', parameters: params(1, 0), impl: calls.load as Impl },
+  'REMAP.BOUNDS': { method: 'bounds', sizeMethod: 'boundsSize', parameters: params(3, 8), impl: bounds as Impl, size: boundsSize },
+  'REMAP.BYGROUP': { method: 'bygroup', sizeMethod: 'bygroupSize', parameters: params(6, 5), impl: groupCalls.byGroup as Impl, size: shapeOf(0) },
+  'REMAP.FITGROUPS': { method: 'fitgroups', parameters: params(4, 5), impl: groupCalls.fitGroups as Impl },
+  'REMAP.APPLYGROUPS': {
+    method: 'applygroups',
+    sizeMethod: 'applygroupsSize',
+    parameters: params(3, 1),
+    impl: groupCalls.applyGroups as Impl,
+    size: shapeOf(1),
+  },
+  'REMAP.GROUPREPORT': {
+    method: 'groupreport',
+    sizeMethod: 'groupreportSize',
+    parameters: params(1, 0),
+    impl: groupCalls.groupReport as Impl,
+    size: () => [GROUP_REPORT_ROWS, 8],
+  },
+  'REMAP.TOTABLE': { method: 'totable', sizeMethod: 'totableSize', parameters: params(3, 5), impl: toTable as Impl, size: shapeOf(0) },
 };
 
 type ProcedureAst = Parameters<FunctionPlugin['runFunction']>[0] extends (infer A)[] ? { args: A[]; procedureName: string } : never;
@@ -128,6 +158,24 @@ export class RemapPlugin extends FunctionPlugin {
   load(ast: ProcedureAst, state: State) {
     return this.call('REMAP.LOAD', ast, state);
   }
+  bounds(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.BOUNDS', ast, state);
+  }
+  bygroup(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.BYGROUP', ast, state);
+  }
+  fitgroups(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.FITGROUPS', ast, state);
+  }
+  applygroups(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.APPLYGROUPS', ast, state);
+  }
+  groupreport(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.GROUPREPORT', ast, state);
+  }
+  totable(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.TOTABLE', ast, state);
+  }
 
   valuesSize(ast: ProcedureAst, state: State) {
     return this.sizeFor('REMAP.VALUES', ast, state);
@@ -143,6 +191,21 @@ export class RemapPlugin extends FunctionPlugin {
   }
   pairsSize(ast: ProcedureAst, state: State) {
     return this.sizeFor('REMAP.PAIRS', ast, state);
+  }
+  boundsSize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.BOUNDS', ast, state);
+  }
+  bygroupSize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.BYGROUP', ast, state);
+  }
+  applygroupsSize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.APPLYGROUPS', ast, state);
+  }
+  groupreportSize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.GROUPREPORT', ast, state);
+  }
+  totableSize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.TOTABLE', ast, state);
   }
 
   /** [rows, cols] of the result of `name` written as `ast`, from argument sizes and literal arguments only. */

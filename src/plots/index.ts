@@ -8,3 +8,4 @@ export { ecdfPlot } from './ecdf-plot';
 export { histogramPlot, type HistogramOptions } from './histogram-plot';
 export { qqPlot, type QQOptions } from './qq-plot';
 export { scatterPlot, type PointSeries, type ScatterOptions } from './scatter-plot';
+export { bandPath, type Band } from './band';

@@ -1,4 +1,5 @@
 import { escapeXml } from '../common/xml-text';
+import { bandPath, type Band } from './band';
 import { makeFrame, px, type PlotOptions } from './frame';
 import { INK, seriesColour } from './palette';
 import { extentOf, quantileOf, sortSeries, type Series } from './series';
@@ -7,6 +8,8 @@ import { extentOf, quantileOf, sortSeries, type Series } from './series';
 export interface QQOptions extends PlotOptions {
   /** Quantiles drawn per series, 2..1000 (default: the smaller sample size, at most 200). */
   readonly points?: number;
+  /** A band drawn under the points (e.g. bounds on the mapped quantiles), in data coordinates; its ends count in the axes' range. */
+  readonly band?: Band;
 }
 
 /**
@@ -28,10 +31,27 @@ export function qqPlot(reference: Series, series: readonly Series[], opts: QQOpt
   const ref = sortSeries(reference);
   const others = series.map(sortSeries);
   const all = [ref, ...others];
-  const [lo, hi] = extentOf(all);
+  const bandColour = seriesColour(
+    Math.max(
+      0,
+      series.findIndex((x) => x.name === opts.band?.of),
+    ) + 1,
+  );
+  let [lo, hi] = extentOf(all);
+  if (opts.band) {
+    for (const arr of [opts.band.lower, opts.band.upper]) {
+      for (let i = 0; i < arr.length; i++) {
+        if (Number.isFinite(arr[i])) {
+          lo = Math.min(lo, arr[i]);
+          hi = Math.max(hi, arr[i]);
+        }
+      }
+    }
+  }
   const maxN = Math.max(0, ...others.map((s) => Math.min(s.rows, ref.rows)));
   const m = Math.max(2, Math.min(1000, Math.round(opts.points ?? Math.min(200, Math.max(2, maxN)))));
   const legend = [
+    ...(opts.band ? [{ name: opts.band.name, colour: bandColour, mark: 'line' as const }] : []),
     ...others.map((s, i) => ({ name: s.name, colour: seriesColour(i + 1), mark: 'point' as const })),
     { name: `same as ${reference.name}`, colour: INK, mark: 'line' as const },
   ];
@@ -50,6 +70,7 @@ export function qqPlot(reference: Series, series: readonly Series[], opts: QQOpt
   marks.push(
     `<path class="diagonal" d="M${px(g.x(a))} ${px(g.y(a))}L${px(g.x(b))} ${px(g.y(b))}" stroke="${INK}" stroke-width="1" stroke-dasharray="4 3" fill="none"/>`,
   );
+  if (opts.band) marks.push(bandPath(g, opts.band, bandColour));
   const r = g.width < 420 ? 1.8 : 2.4;
   others.forEach((s, i) => {
     const c = seriesColour(i + 1);

@@ -1,4 +1,4 @@
-import { ecdfPlot, histogramPlot, qqPlot, quantileOf, scatterPlot, sortSeries, type Series } from '../plots';
+import { ecdfPlot, histogramPlot, qqPlot, quantileOf, scatterPlot, sortSeries, type Band, type Series } from '../plots';
 import type { ChartTable } from '../workbook/comparison-chart';
 import type { PlotSample } from '../fits/worker/messages';
 
@@ -47,9 +47,9 @@ export function distributionSvg(data: PlotData, k: number, kind: 'ecdf' | 'histo
 }
 
 /** Column k's quantiles of source and mapped source against the target's. O(n log n). */
-export function qqSvg(data: PlotData, k: number, width: number): string {
+export function qqSvg(data: PlotData, k: number, width: number, band?: Band | null): string {
   const s = seriesOf(data, k);
-  return qqPlot(s.target, [s.source, s.mapped], { width, title: `${columnName(data, k)}: quantiles against the target` });
+  return qqPlot(s.target, [s.source, s.mapped], { width, title: `${columnName(data, k)}: quantiles against the target`, ...(band ? { band } : {}) });
 }
 
 /** Columns a (x) and b (y) of source, mapped source and target as three clouds. O(n). */

@@ -2,6 +2,7 @@ import type { Diagnostics } from '../engine/map';
 import { insertComparisonChart } from '../workbook/comparison-chart';
 import { $, listItem, messageOf, PLOT_WIDTH, setStatus } from './dom';
 import { pane } from './pane-state';
+import { shownBand } from './bounds-view';
 import { noWarningsLine } from './formula-status';
 import { diagnosticsInWords, warningsInWords } from './plain-words';
 import { chartTable, columnName, distributionSvg, qqSvg, scatterSvg, type PlotData } from './plots-view';
@@ -65,7 +66,7 @@ export function drawPlots(): void {
   const kind = $<HTMLSelectElement>('plot-kind').value === 'histogram' ? 'histogram' : 'ecdf';
   try {
     $('plot-dist').innerHTML = distributionSvg(shown, k, kind, PLOT_WIDTH);
-    $('plot-qq').innerHTML = qqSvg(shown, k, PLOT_WIDTH);
+    $('plot-qq').innerHTML = qqSvg(shown, k, PLOT_WIDTH, shownBand(shown));
     if (shown.source.d >= 2) {
       const x = Number($<HTMLSelectElement>('scatter-x').value);
       const y = Number($<HTMLSelectElement>('scatter-y').value);

@@ -61,7 +61,7 @@ function start(): void {
   for (const id of ['source-weights', 'target-weights', 'result-cell']) $(id).addEventListener('change', updateFormula);
   $('fit').addEventListener('click', () => void fit());
   $('cancel').addEventListener('click', cancel);
-  for (const id of ['plot-column', 'plot-kind', 'scatter-x', 'scatter-y']) $(id).addEventListener('change', drawPlots);
+  for (const id of ['plot-column', 'plot-kind', 'plot-bounds', 'scatter-x', 'scatter-y']) $(id).addEventListener('change', drawPlots);
   $('insert-chart').addEventListener('click', () => void insertChart());
   $('apply').addEventListener('click', () => void writeApply());
   $('maps-refresh').addEventListener('click', () => void refreshMaps());
