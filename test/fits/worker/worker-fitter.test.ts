@@ -58,7 +58,18 @@ describe('fits in a worker (workerFitter)', () => {
     expect(viaWorker.cost().w2Squared).toBe(onPage.cost().w2Squared);
   });
 
-  test('closed-form methods are fitted on the page and never reach a worker', () => {
+  test('closed-form methods on large data go to a worker too, so the page never blocks', async () => {
+    let made = 0;
+    const fitter = workerFitter({ make: () => (made++, new FakeWorker()), fallback: startFit });
+    const big = sample(Array.from({ length: 12_000 }, (_, i) => [Math.sin(i) * 5 + i / 1000]));
+    const map = fitter('quantile', big, big, {}, ctx());
+    // Source: design choice (PAGE_MAX_NUMBERS = 20,000: 24,000 numbers go to a worker)
+    expect(map instanceof Promise).toBe(true);
+    await map;
+    expect(made).toBe(1);
+  });
+
+  test('closed-form methods on small data are fitted on the page and never reach a worker', () => {
     let made = 0;
     const fitter = workerFitter({ make: () => (made++, new FakeWorker()), fallback: startFit });
     const map = fitter('linear', src, tgt, {}, ctx());
