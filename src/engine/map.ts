@@ -49,7 +49,8 @@ export type WarningCode =
   | 'ties'
   | 'source-rows-only'
   | 'time-budget'
-  | 'unequal-sizes';
+  | 'unequal-sizes'
+  | 'kept-linear-start';
 
 /** A plain-language caution with what to do about it. */
 export interface Warning {
