@@ -11,6 +11,8 @@ import * as path from 'path';
 
 const dir = __dirname;
 const filter = (process.argv[2] ?? '').trim().toLowerCase();
+/** Arguments after the filter go to every chosen benchmark (npm run bench -- zoo --half tune). */
+const passOn = process.argv.slice(3);
 const all = fs.readdirSync(dir).filter((f) => f.endsWith('.bench.ts')).sort();
 const chosen = all.filter((f) => f.toLowerCase().includes(filter));
 
@@ -24,7 +26,7 @@ const failed: string[] = [];
 for (const file of chosen) {
   console.log(`\n=== ${file} ===`);
   const t0 = performance.now();
-  const r = spawnSync(process.execPath, [tsxCli, path.join(dir, file)], { cwd: path.resolve(dir, '..'), stdio: 'inherit' });
+  const r = spawnSync(process.execPath, [tsxCli, path.join(dir, file), ...passOn], { cwd: path.resolve(dir, '..'), stdio: 'inherit' });
   const secs = ((performance.now() - t0) / 1000).toFixed(1);
   if (r.status !== 0) {
     failed.push(file);
