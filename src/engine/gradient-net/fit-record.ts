@@ -20,8 +20,10 @@ export interface FitStory {
   /** The entropic teacher, when the network was first fitted to it. */
   teacher: Teacher | null;
   readonly phases: { readonly name: string; readonly objective: string; readonly result: TrainResult; readonly stepOffset: number }[];
-  /** Held-out energy distance of the Gaussian (linear) map, the candidate every checkpoint must beat. */
-  readonly startScore: number;
+  /** Held-out score (see `judge`) of the Gaussian (linear) map, the candidate every checkpoint must beat. */
+  startScore: number;
+  /** What the checkpoint score measures, in words. */
+  judge: string;
 }
 
 /** Rows per side, and eps (for the cost |x - y|^2 on data divided by one overall spread), of the remaining-distance estimate. */
@@ -185,7 +187,7 @@ function convergenceOf(story: FitStory): Convergence {
       iterations: 0,
       finalError: NaN,
       converged: false,
-      criterion: `${teacher}${how} (${total} steps ${where}); no checkpoint beat the Gaussian linear map on the held-out energy distance (${fmt(story.startScore)}), so that map is returned.`,
+      criterion: `${teacher}${how} (${total} steps ${where}); no checkpoint beat the Gaussian linear map on the ${story.judge} (${fmt(story.startScore)}), so that map is returned.`,
     };
   }
   const k = ph[keptPhase];
@@ -197,7 +199,7 @@ function convergenceOf(story: FitStory): Convergence {
     converged: stoppedByItself,
     criterion:
       `${teacher}${how} (${total} steps ${where}). Returned: the weights of step ${k.stepOffset + r.keptStep} (${k.name}), ` +
-      `smoothed ${k.objective} ${fmt(r.keptLoss)} (standardised units), held-out energy distance ${fmt(r.keptScore)} against ${fmt(story.startScore)} for the Gaussian linear map.`,
+      `smoothed ${k.objective} ${fmt(r.keptLoss)} (standardised units), ${story.judge} ${fmt(r.keptScore)} against ${fmt(story.startScore)} for the Gaussian linear map.`,
   };
 }
 

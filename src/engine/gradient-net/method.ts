@@ -5,7 +5,7 @@ import type { Sample } from '../points';
 import { settingsOf, type Settings } from '../settings';
 import { pooledColumnScales } from '../stats/column-scales';
 import { Random } from '../stats/random';
-import { entropicTeacher, type Teacher } from './entropic-teacher';
+import { entropicTeacher, TEACHER_ROWS, type Teacher } from './entropic-teacher';
 import { fitRecordOf, type FitStory } from './fit-record';
 import { GradientNetMap, type Frame } from './fitted-map';
 import { gaussianLinearMap } from './gaussian-linear-map';
@@ -16,6 +16,7 @@ import type { NetworkParams } from './network-params';
 import { RegressionObjective } from './regression-objective';
 import { GRADIENT_NET_SETTINGS } from './settings';
 import { SinkhornObjective } from './sinkhorn-objective';
+import { TeacherScore } from './teacher-score';
 import { standardise, standardiserOf } from './standardise';
 import type { Checkpoints, TrainResult } from './train';
 import type { TrainData } from './train-data';
@@ -36,9 +37,13 @@ export interface Tuning {
   readonly refineLearningRate: number;
   /** eps of the refinement's Sinkhorn divergence for the cost |x - y|^2, as a multiple of the teacher's eps. */
   readonly refineEpsFactor: number;
+  /** The automatic smoothing: this factor times mean column variance times n^(-2/(d+4)) (see autoSmoothing). */
+  readonly smoothingFactor: number;
+  /** Bench only: keep the last weights instead of the best held-out checkpoint (to see what the judge sees). */
+  readonly keepLast?: boolean;
 }
 
-export const DEFAULT_TUNING: Tuning = { regressionShare: 1, regressionLearningRate: 0.01, refine: false, refineLearningRate: 0.002, refineEpsFactor: 2 };
+export const DEFAULT_TUNING: Tuning = { regressionShare: 1, regressionLearningRate: 0.01, refine: false, refineLearningRate: 0.002, refineEpsFactor: 2, smoothingFactor: 0.125 };
 
 /**
  * Fits a gradient-net map:
@@ -89,17 +94,20 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
     : new HeldoutScore(allX, allY);
   const trainX = held ? pickRows(xs, source.weights, d, sSplit.train) : allX;
   const trainY = held ? pickRows(ys, target.weights, d, tSplit.train) : allY;
-  const startScore = judge.of(gaussian);
-  const story: FitStory = { steps, timeBudget: own.time_budget, start: own.start, teacher: null, phases: [], startScore };
+  const heldX = held ? pickRows(xs, source.weights, d, sSplit.held) : allX;
+  const story: FitStory = { steps, timeBudget: own.time_budget, start: own.start, teacher: null, phases: [], startScore: NaN, judge: '' };
   let params: NetworkParams = gaussian;
   if (steps > 0) {
     // TensorFlow.js is loaded here, when a fit first trains, and not by the rest of the engine.
     const { trainGradientNet } = await import('./train');
     const left = (): number => budgetMs - (Date.now() - t0);
-    let kept: { params: NetworkParams; score: number } = { params: gaussian, score: startScore };
+    let kept: { params: NetworkParams; score: number } = { params: gaussian, score: NaN };
     let done = 0;
+    let scoreOf: (p: NetworkParams) => number = (p) => judge.of(p);
     const run = async (name: string, objective: SinkhornObjective | RegressionObjective, count: number, lr: number, from: NetworkParams): Promise<TrainResult> => {
-      const checkpoints: Checkpoints = { score: (p) => judge.of(p), every: CHECK_EVERY, patience: CHECK_PATIENCE, start: kept };
+      let tick = 0;
+      const score = tuning.keepLast ? () => -++tick : scoreOf;
+      const checkpoints: Checkpoints = { score, every: CHECK_EVERY, patience: CHECK_PATIENCE, start: tuning.keepLast ? { params: kept.params, score: 0 } : kept };
       const offset = done;
       const phaseCtx: FitContext = { ...ctx, onProgress: ctx.onProgress ? (p) => ctx.onProgress!({ ...p, step: p.step + offset, of: steps }) : undefined };
       const opts = { steps: count, learningRate: lr, batch: own.batch, seed: seed + story.phases.length, timeBudgetMs: Math.max(0, left()), backend: own.backend, objective };
@@ -110,8 +118,14 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
       return r;
     };
     if (own.start === 'entropic') {
-      const teacher: Teacher = entropicTeacher(trainX, trainY, own.smoothing, new Random(seed ^ 0x51ed270b), ctx);
+      const smoothing = own.smoothing > 0 ? own.smoothing : autoSmoothing(trainX, trainY, tuning.smoothingFactor);
+      const teacher: Teacher = entropicTeacher(trainX, trainY, smoothing, new Random(seed ^ 0x51ed270b), ctx);
       story.teacher = teacher;
+      const judgeByTeacher = new TeacherScore(heldX, teacher.at(heldX));
+      scoreOf = (p) => judgeByTeacher.of(p);
+      kept = { params: gaussian, score: scoreOf(gaussian) };
+      story.startScore = kept.score;
+      story.judge = 'held-out mean squared distance to the teacher map';
       const targetsOf = teacherTargets(teacher, trainX);
       const count = Math.max(1, Math.round(steps * tuning.regressionShare));
       const r = await run('regression onto the entropic map', new RegressionObjective(targetsOf), count, tuning.regressionLearningRate, start);
@@ -120,6 +134,9 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
         await run('refinement on the Sinkhorn divergence', new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372), steps - done, tuning.refineLearningRate, kept.params);
       }
     } else {
+      kept = { params: gaussian, score: scoreOf(gaussian) };
+      story.startScore = kept.score;
+      story.judge = 'held-out energy distance';
       const eps = own.smoothing > 0 ? 2 * own.smoothing : gaussianStartEps(d);
       await run('Sinkhorn divergence from the Gaussian start', new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372), steps, own.learning_rate, start);
     }
@@ -154,6 +171,41 @@ function teacherTargets(teacher: Teacher, x: TrainData): (rows: Uint32Array) => 
     for (let b = 0; b < rows.length; b++) for (let k = 0; k < d; k++) out[b * d + k] = all[rows[b] * d + k];
     return out;
   };
+}
+
+/**
+ * The automatic smoothing (epsilon of the teacher, cost |x - y|^2 / 2):
+ * factor * V * n^(-2 / (d + 4)), V the mean column variance of the two
+ * standardised samples (about 1), n the smaller of the row counts the teacher
+ * uses (at most TEACHER_ROWS). The n^(-2/(d+4)) rate is the kernel-smoothing
+ * rate for a squared bandwidth (as the entropic method's rule, entropic/default-eps.ts).
+ * The factor was chosen on the tuning half of the bench zoo: the network's
+ * regression averages the teacher's noise, so it prefers a less smoothed, less
+ * biased teacher than the entropic method on its own. O((n + m) d).
+ */
+export function autoSmoothing(x: TrainData, y: TrainData, factor: number): number {
+  const d = x.d;
+  const v = (meanColumnVariance(x) + meanColumnVariance(y)) / 2;
+  const n = Math.min(x.n, y.n, TEACHER_ROWS);
+  const eps = factor * v * Math.pow(n, -2 / (d + 4));
+  return eps > 0 && Number.isFinite(eps) ? eps : 1e-3;
+}
+
+function meanColumnVariance(p: TrainData): number {
+  const { n, d, data, weights } = p;
+  let total = 0;
+  const mean = new Float64Array(d);
+  for (let i = 0; i < n; i++) {
+    const w = weights ? weights[i] : 1;
+    total += w;
+    for (let k = 0; k < d; k++) mean[k] += w * data[i * d + k];
+  }
+  let s = 0;
+  for (let i = 0; i < n; i++) {
+    const w = weights ? weights[i] : 1;
+    for (let k = 0; k < d; k++) s += w * (data[i * d + k] - mean[k] / total) ** 2;
+  }
+  return s / total / d;
 }
 
 /**
