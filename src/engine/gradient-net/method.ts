@@ -24,8 +24,8 @@ import type { TrainData } from './train-data';
 /** Steps between held-out checkpoint scores, and steps without a better score before training stops. */
 export const CHECK_EVERY = 10;
 export const CHECK_PATIENCE = 400;
-/** Teacher targets for at most this many training rows are computed once; past it, per batch. */
-const PRECOMPUTE_ROWS = 20_000;
+/** The regression onto the teacher uses at most this many training rows (seeded subset). */
+export const REGRESSION_ROWS = 20_000;
 
 /** Choices made on the tuning half of the bench zoo; the method uses DEFAULT_TUNING, benches may vary it. */
 export interface Tuning {
@@ -104,41 +104,42 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
     let kept: { params: NetworkParams; score: number } = { params: gaussian, score: NaN };
     let done = 0;
     let scoreOf: (p: NetworkParams) => number = (p) => judge.of(p);
-    const run = async (name: string, objective: SinkhornObjective | RegressionObjective, count: number, lr: number, from: NetworkParams): Promise<TrainResult> => {
+    const run = async (name: string, rows: TrainData, objective: SinkhornObjective | RegressionObjective, count: number, lr: number, from: NetworkParams): Promise<TrainResult> => {
       let tick = 0;
       const score = tuning.keepLast ? () => -++tick : scoreOf;
       const checkpoints: Checkpoints = { score, every: CHECK_EVERY, patience: CHECK_PATIENCE, start: tuning.keepLast ? { params: kept.params, score: 0 } : kept };
       const offset = done;
       const phaseCtx: FitContext = { ...ctx, onProgress: ctx.onProgress ? (p) => ctx.onProgress!({ ...p, step: p.step + offset, of: steps }) : undefined };
       const opts = { steps: count, learningRate: lr, batch: own.batch, seed: seed + story.phases.length, timeBudgetMs: Math.max(0, left()), backend: own.backend, objective };
-      const r = await trainGradientNet(trainX, from, opts, phaseCtx, checkpoints);
+      const r = await trainGradientNet(rows, from, opts, phaseCtx, checkpoints);
       story.phases.push({ name, objective: objective.describe, result: r, stepOffset: offset });
       done += r.steps;
       kept = { params: r.params, score: r.keptScore };
       return r;
     };
     if (own.start === 'entropic') {
-      const smoothing = own.smoothing > 0 ? own.smoothing : autoSmoothing(trainX, trainY, tuning.smoothingFactor);
-      const teacher: Teacher = entropicTeacher(trainX, trainY, smoothing, new Random(seed ^ 0x51ed270b), ctx);
+      const smoothing = own.smoothing > 0 ? own.smoothing : autoSmoothing(trainX, allY, tuning.smoothingFactor);
+      // The target's held-out rows only serve the energy-distance judge, which this path does not use: the teacher sees every target row.
+      const teacher: Teacher = entropicTeacher(trainX, allY, smoothing, new Random(seed ^ 0x51ed270b), ctx);
       story.teacher = teacher;
       const judgeByTeacher = new TeacherScore(heldX, teacher.at(heldX));
       scoreOf = (p) => judgeByTeacher.of(p);
       kept = { params: gaussian, score: scoreOf(gaussian) };
       story.startScore = kept.score;
       story.judge = 'held-out mean squared distance to the teacher map';
-      const targetsOf = teacherTargets(teacher, trainX);
+      const reg = regressionRows(teacher, trainX, new Random(seed ^ 0x6a09e667));
       const count = Math.max(1, Math.round(steps * tuning.regressionShare));
-      const r = await run('regression onto the entropic map', new RegressionObjective(targetsOf), count, tuning.regressionLearningRate, start);
+      const r = await run('regression onto the entropic map', reg.rows, new RegressionObjective(reg.targetsOf), count, tuning.regressionLearningRate, start);
       if (tuning.refine && done < steps && left() > 0 && r.stopped !== 'time-budget') {
         const eps = 2 * teacher.eps * tuning.refineEpsFactor;
-        await run('refinement on the Sinkhorn divergence', new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372), steps - done, tuning.refineLearningRate, kept.params);
+        await run('refinement on the Sinkhorn divergence', trainX, new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372), steps - done, tuning.refineLearningRate, kept.params);
       }
     } else {
       kept = { params: gaussian, score: scoreOf(gaussian) };
       story.startScore = kept.score;
       story.judge = 'held-out energy distance';
       const eps = own.smoothing > 0 ? 2 * own.smoothing : gaussianStartEps(d);
-      await run('Sinkhorn divergence from the Gaussian start', new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372), steps, own.learning_rate, start);
+      await run('Sinkhorn divergence from the Gaussian start', trainX, new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372), steps, own.learning_rate, start);
     }
     params = kept.params;
   }
@@ -153,24 +154,27 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
   const sf = frameOf(source, ss.mean, ss.scale);
   const tf = frameOf(target, ts.mean, ts.scale);
   const fitted = fitRecordOf(source, target, params, sf, tf, story, sizeWarnings(header));
-  return new GradientNetMap(header, fitted, params, sf, tf);
+  const map = new GradientNetMap(header, fitted, params, sf, tf);
+  map.attachSamples(source, target); // energy distance and KS on demand, as for every method (assess.ts)
+  return map;
 }
 
-/** The teacher's map at training rows: computed once for up to 20,000 rows, else per batch. */
-function teacherTargets(teacher: Teacher, x: TrainData): (rows: Uint32Array) => Float64Array {
+/**
+ * The rows the regression trains on and the teacher's map at them: every
+ * training row up to REGRESSION_ROWS, else a seeded subset of that many (the
+ * teacher costs O(4,000 d) per row, and 20,000 rows are plenty for a network
+ * of a few thousand weights). O(rows * teacher rows * d).
+ */
+function regressionRows(teacher: Teacher, x: TrainData, rng: Random): { rows: TrainData; targetsOf: (idx: Uint32Array) => Float64Array } {
   const d = x.d;
-  const gather = (rows: Uint32Array): Float64Array => {
-    const out = new Float64Array(rows.length * d);
-    for (let b = 0; b < rows.length; b++) for (let k = 0; k < d; k++) out[b * d + k] = x.data[rows[b] * d + k];
+  const rows = x.n > REGRESSION_ROWS ? pickRows(x.data, x.weights, d, Uint32Array.from(rng.choose(x.n, REGRESSION_ROWS))) : x;
+  const all = teacher.at({ n: rows.n, d, data: rows.data });
+  const targetsOf = (idx: Uint32Array): Float64Array => {
+    const out = new Float64Array(idx.length * d);
+    for (let b = 0; b < idx.length; b++) for (let k = 0; k < d; k++) out[b * d + k] = all[idx[b] * d + k];
     return out;
   };
-  if (x.n > PRECOMPUTE_ROWS) return (rows) => teacher.at({ n: rows.length, d, data: gather(rows) });
-  const all = teacher.at({ n: x.n, d, data: x.data });
-  return (rows) => {
-    const out = new Float64Array(rows.length * d);
-    for (let b = 0; b < rows.length; b++) for (let k = 0; k < d; k++) out[b * d + k] = all[rows[b] * d + k];
-    return out;
-  };
+  return { rows, targetsOf };
 }
 
 /**

@@ -74,3 +74,23 @@ describe.each(BACKENDS)('on the %s backend', (backend) => {
     });
   });
 });
+
+describe('Float64Network.forwardRows', () => {
+  test('gives the same numbers as forward row by row (closed form and cascade)', () => {
+    for (const layers of [1, 2]) {
+      const d = 3;
+      const net = new Float64Network(randomParams(d, 10, layers, 40 + layers));
+      const r = new Random(9);
+      // Rows include far-out values, where the sigmoid saturates (e^-u overflows to Infinity).
+      const x = Float64Array.from({ length: 7 * d }, (_, j) => (j === 4 ? 900 : j === 5 ? -900 : 3 * r.normal()));
+      const out = new Float64Array(x.length);
+      net.forwardRows(x, 7, out);
+      const f = new Float64Array(d);
+      for (let i = 0; i < 7; i++) {
+        net.forward(x.slice(i * d, (i + 1) * d), f);
+        // Source: the same formula (network-params.ts); only the order of float64 operations may differ.
+        for (let k = 0; k < d; k++) expect(Math.abs(out[i * d + k] - f[k])).toBeLessThan(1e-12 * (1 + Math.abs(f[k])));
+      }
+    }
+  });
+});
