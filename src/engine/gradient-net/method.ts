@@ -72,7 +72,8 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
   const t0 = Date.now();
   const d = source.d;
   const own = settingsOf(GRADIENT_NET_SETTINGS, settings, 'gradient-net');
-  const { hidden, layers, steps, seed } = own;
+  const { layers, steps, seed } = own;
+  const hidden = own.hidden > 0 ? own.hidden : autoHidden(d);
   const budgetMs = own.time_budget * 1000;
   const columnScales = own.units === 'raw' ? new Float64Array(d).fill(1) : pooledColumnScales(source, target);
   const ss = standardiserOf(source, columnScales);
@@ -175,6 +176,17 @@ function regressionRows(teacher: Teacher, x: TrainData, rng: Random): { rows: Tr
     return out;
   };
   return { rows, targetsOf };
+}
+
+/**
+ * The automatic width, max(64, 12 d): chosen on the tuning half of the bench
+ * zoo at d = 8 (n = 4,000, 20 s), where 96 units gave L2-UVP 1.59-2.10 % against
+ * 1.65-2.28 % for 64, while applying the map costs O(hidden d) per row, so
+ * narrower nets are kept where they suffice (d <= 5). O(1).
+ * @example autoHidden(8) // 96
+ */
+export function autoHidden(d: number): number {
+  return Math.max(64, 12 * d);
 }
 
 /**

@@ -8,7 +8,14 @@ import { MAX_HIDDEN, MAX_LAYERS } from './network-params';
  * zoo (bench/gradient-net.bench.ts).
  */
 export const GRADIENT_NET_SETTINGS = [
-  { name: 'hidden', type: 'integer', default: 64, min: 1, max: MAX_HIDDEN, describe: 'Hidden units of the network (1 to 1024).' },
+  {
+    name: 'hidden',
+    type: 'integer',
+    default: 0,
+    min: 0,
+    max: MAX_HIDDEN,
+    describe: 'Hidden units of the network (1 to 1024); 0 = automatic, max(64, 12 x columns): 64 up to 5 columns, 96 at 8.',
+  },
   {
     name: 'layers',
     type: 'integer',
