@@ -168,14 +168,20 @@ function draw(p: Points, weights: Float64Array | null, rng: Random, scale: numbe
   return { n: k, d, data };
 }
 
-/** The kept checkpoint: which phase and step, its loss and score; converged only when training stopped by itself after a gain. */
+/**
+ * The convergence of the RETURNED map: iterations = the step whose weights were
+ * kept (0 for the Gaussian start), finalError = their held-out score (story.judge;
+ * always finite, so the record survives JSON), converged only when training
+ * stopped by itself (plateau or no further gain) after beating the start.
+ */
 function convergenceOf(story: FitStory): Convergence {
   const ph = story.phases;
   const teacher = story.teacher
     ? `the entropic teacher (eps ${fmt(story.teacher.eps)} for |x - y|^2 / 2, ${story.teacher.rows.source} x ${story.teacher.rows.target} rows, ${story.teacher.iterations} Sinkhorn iterations${story.teacher.converged ? '' : ', not converged'}); `
     : '';
+  const start = Number.isFinite(story.startScore) ? story.startScore : 0;
   if (ph.length === 0) {
-    return { iterations: 0, finalError: NaN, converged: false, criterion: 'no training (steps = 0): the Gaussian linear map (the linear method\'s map) is returned.' };
+    return { iterations: 0, finalError: start, converged: false, criterion: `no training (steps = 0): the Gaussian linear map (the linear method's map) is returned; final error: its ${story.judge} ${fmt(start)}.` };
   }
   let keptPhase = -1;
   for (let i = ph.length - 1; i >= 0; i--) {
@@ -191,9 +197,9 @@ function convergenceOf(story: FitStory): Convergence {
   if (keptPhase < 0) {
     return {
       iterations: 0,
-      finalError: NaN,
+      finalError: start,
       converged: false,
-      criterion: `${teacher}${how} (${total} steps ${where}); no checkpoint beat the Gaussian linear map on the ${story.judge} (${fmt(story.startScore)}), so that map is returned.`,
+      criterion: `${teacher}${how} (${total} steps ${where}); no checkpoint beat the Gaussian linear map on the ${story.judge} (${fmt(start)}, the final error), so that map is returned.`,
     };
   }
   const k = ph[keptPhase];
@@ -201,11 +207,11 @@ function convergenceOf(story: FitStory): Convergence {
   const stoppedByItself = last.stopped === 'plateau' || last.stopped === 'no-gain';
   return {
     iterations: k.stepOffset + r.keptStep,
-    finalError: r.keptLoss,
+    finalError: r.keptScore,
     converged: stoppedByItself,
     criterion:
-      `${teacher}${how} (${total} steps ${where}). Returned: the weights of step ${k.stepOffset + r.keptStep} (${k.name}), ` +
-      `smoothed ${k.objective} ${fmt(r.keptLoss)} (standardised units), ${story.judge} ${fmt(r.keptScore)} against ${fmt(story.startScore)} for the Gaussian linear map.`,
+      `${teacher}${how} (${total} steps ${where}). Returned: the weights of step ${k.stepOffset + r.keptStep} (${k.name}); final error: their ` +
+      `${story.judge} ${fmt(r.keptScore)} against ${fmt(start)} for the Gaussian linear map (smoothed training loss, ${k.objective}, ${fmt(r.keptLoss)}; standardised units).`,
   };
 }
 

@@ -98,7 +98,10 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
   const heldX = held ? pickRows(xs, source.weights, d, sSplit.held) : allX;
   const story: FitStory = { steps, timeBudget: own.time_budget, start: own.start, teacher: null, phases: [], startScore: NaN, judge: '' };
   let params: NetworkParams = gaussian;
-  if (steps > 0) {
+  if (steps === 0) {
+    story.startScore = judge.of(gaussian);
+    story.judge = 'held-out energy distance';
+  } else {
     // TensorFlow.js is loaded here, when a fit first trains, and not by the rest of the engine.
     const { trainGradientNet } = await import('./train');
     const left = (): number => budgetMs - (Date.now() - t0);

@@ -23,7 +23,7 @@ describe('fitRecordOf', () => {
   test('the convergence record describes the returned checkpoint, not the last weights', () => {
     const rec = fitRecordOf(src, tgt, p, frame, frame, story({ ...result, stopped: 'no-gain' }), []);
     expect(rec.warnings).toEqual([]);
-    expect(rec.convergence).toMatchObject({ iterations: 30, finalError: 0.05, converged: true });
+    expect(rec.convergence).toMatchObject({ iterations: 30, finalError: 0.1, converged: true });
     expect(rec.convergence?.criterion).toMatch(/weights of step 30/);
   });
 
@@ -31,7 +31,7 @@ describe('fitRecordOf', () => {
     const rec = fitRecordOf(src, tgt, p, frame, frame, story({ ...result, keptStep: 0, stopped: 'no-gain' }), []);
     expect(rec.warnings.map((w) => w.code)).toEqual(['kept-linear-start']);
     expect(rec.warnings[0].message).toMatch(/linear \(Gaussian\) map/);
-    expect(rec.convergence).toMatchObject({ iterations: 0, converged: false });
+    expect(rec.convergence).toMatchObject({ iterations: 0, finalError: 0.2, converged: false });
   });
 
   test('a displacement below the Gaussian lower bound is explained', () => {
