@@ -48,22 +48,31 @@ export class GradientNetMap extends BaseMap {
   protected applyPoints(x: Points): Mapped {
     const { d } = this;
     const out = new Float64Array(x.n * d);
-    const row = new Float64Array(d);
     const clamp = this.header.settings.tails !== 'linear';
     const block = 4096;
     const z = new Float64Array(block * d);
     const f = new Float64Array(block * d);
-    const { mean, scale } = this.target;
+    const { lo, hi, mean: ms, scale: ss } = this.source;
+    const { mean: mt, scale: st } = this.target;
+    const data = x.data;
     let outside = 0;
     for (let start = 0; start < x.n; start += block) {
       const rows = Math.min(block, x.n - start);
-      for (let r = 0; r < rows; r++) {
-        if (this.load(x.data, start + r, row, this.source, clamp)) outside++;
-        z.set(row, r * d);
+      // Standardise the block (clamping to the fitted range with tails = clamp), counting rows outside it.
+      for (let r = 0, j = start * d, o = 0; r < rows; r++) {
+        let out = false;
+        for (let k = 0; k < d; k++, j++, o++) {
+          let v = data[j];
+          if (v < lo[k] || v > hi[k]) {
+            out = true;
+            if (clamp) v = v < lo[k] ? lo[k] : hi[k];
+          }
+          z[o] = (v - ms[k]) / ss[k];
+        }
+        if (out) outside++;
       }
       this.net.forwardRows(z, rows, f);
-      const o = start * d;
-      for (let j = 0; j < rows * d; j++) out[o + j] = mean[j % d] + scale[j % d] * f[j];
+      for (let r = 0, j = start * d, o = 0; r < rows; r++) for (let k = 0; k < d; k++, j++, o++) out[j] = mt[k] + st[k] * f[o];
     }
     return { n: x.n, d, data: out, outside };
   }
