@@ -42,9 +42,11 @@ describe('gradientNetMethod', () => {
     expect(gradientNetMethod.minRows(12)).toBe(14);
   });
 
-  test('a fit leaves no tensors behind, does not mutate its inputs, and its map needs none', async () => {
+  test.each(['cpu', 'wasm'])('on the %s backend a fit leaves no tensors behind, does not mutate its inputs, and its map needs none', async (backend) => {
+    await useBackend(backend as 'cpu' | 'wasm');
     const before = tf.memory().numTensors;
-    const map = await gradientNetMethod.fit(SRC, TGT, settingsOf(FAST), {});
+    const map = await gradientNetMethod.fit(SRC, TGT, settingsOf({ ...FAST, backend }), {});
+    expect(map.diagnostics().convergence?.criterion).toContain(`on the ${backend} backend`);
     expect(tf.memory().numTensors).toBe(before);
     map.dispose();
     expect(tf.memory().numTensors).toBe(before);
