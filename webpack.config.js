@@ -4,6 +4,8 @@
  *   functions.json  their metadata, generated from the JSDoc @customfunction tags (never edited by hand)
  *   taskpane.html   the one shared-runtime page: loads office.js, then functions.js and taskpane.js
  *   taskpane.js, taskpane.css, manifest.xml, assets/icon-*.png, wasm/*.wasm (TensorFlow.js wasm backend)
+ *   fit-worker.js   fits off the page's thread (the pane's, and worksheet cells' slow methods)
+ *   help.html       the help page the manifest's support and learn-more links open
  *
  * `npm run build` = webpack --mode production; `npm start` = webpack serve --mode development, which serves
  * the same files from memory over https on DEV_BASE_URL for sideloading.
@@ -66,7 +68,7 @@ class NoEvalPlugin {
 
 const FUNCTIONS_SOURCE = './src/functions/functions.ts';
 const TASKPANE_SOURCE = './src/taskpane/taskpane.ts';
-const FIT_WORKER_SOURCE = './src/taskpane/fit-worker.ts';
+const FIT_WORKER_SOURCE = './src/fits/worker/fit-worker.ts';
 
 /**
  * Adds top-level flags to the generated functions.json that the metadata generator does not write:
@@ -129,8 +131,9 @@ module.exports = async (env) => {
       functions: FUNCTIONS_SOURCE,
       // The pane shares the functions bundle's modules (one map store, one engine) on the shared-runtime page.
       taskpane: { import: TASKPANE_SOURCE, dependOn: 'functions' },
-      // The pane's fits run in a worker, so the pane stays responsive and Cancel stops any method at once.
-      'fit-worker': FIT_WORKER_SOURCE,
+      // Fits (the pane's, and worksheet cells' slow ones) run in a worker, so the page stays responsive and a cancel stops any method at once.
+      // A worker has no document to add <script> tags to: chunks loaded lazily there (the trainer) come through importScripts.
+      'fit-worker': { import: FIT_WORKER_SOURCE, chunkLoading: 'import-scripts' },
     },
     output: {
       path: path.resolve(__dirname, 'dist'),
@@ -181,6 +184,8 @@ module.exports = async (env) => {
           },
           { from: 'assets/*.png', to: 'assets/[name][ext]' },
           { from: 'src/taskpane/taskpane.css', to: 'taskpane.css' },
+          // The help page the manifest's support and learn-more links open (static: no script).
+          { from: 'src/help/help.html', to: 'help.html' },
           // The engine calls setWasmPaths('<base>wasm/') in the browser.
           { from: 'node_modules/@tensorflow/tfjs-backend-wasm/dist/*.wasm', to: 'wasm/[name][ext]' },
         ],

@@ -45,7 +45,9 @@ async function main(): Promise<void> {
       if (m === 'linear') linearUvp = uvp;
       const warn = map.diagnostics().warnings.map((w) => w.code).filter((c) => c !== 'extrapolation');
       console.log(
-        `${String(d).padEnd(4)}${m.padEnd(15)}${uvp.toFixed(2).padStart(8)}   ${cosineMetric(test, predicted, exact).toFixed(4)}  ${secs.toFixed(1).padStart(6)}    ${m === 'linear' ? '1' : (linearUvp / uvp).toFixed(1) + 'x better'}${warn.length ? '   warnings: ' + warn.join(', ') : ''}`,
+        `${String(d).padEnd(4)}${m.padEnd(15)}${uvp.toFixed(2).padStart(8)}   ${cosineMetric(test, predicted, exact).toFixed(4)}  ` +
+          `${secs.toFixed(1).padStart(6)}    ` +
+            `${m === 'linear' ? '1' : (linearUvp / uvp).toFixed(1) + 'x better'}${warn.length ? '   warnings: ' + warn.join(', ') : ''}`,
       );
       map.dispose();
     }

@@ -22,7 +22,7 @@ import { fusedScalingPass, kernelTimes } from '../src/engine/entropic/kernel-pro
 import { buildSymmetricKernel, packedSize, symmetricKernelTimes } from '../src/engine/entropic/symmetric-kernel';
 import { solveSinkhorn } from '../src/engine/entropic/sinkhorn';
 import { barycentricMap } from '../src/engine/entropic/barycentric-map';
-import { defaultEps, DEFAULT_EPS_FACTOR } from '../src/engine/entropic/default-eps';
+import { defaultEps, defaultEpsFactor } from '../src/engine/entropic/default-eps';
 import type { Points, Sample } from '../src/engine/points';
 import { squaredDistancesRow } from '../src/engine/stats/sq-distances';
 import { knownTruth, l2uvp, totalVariance } from './truth';
@@ -130,7 +130,8 @@ function speed(): void {
   }
   const naiveIterMs = (performance.now() - t) / naiveReps;
 
-  console.log(`\nSpeed: n = m = ${n}, d = ${d}, eps = ${eps.toPrecision(3)} (default rule), default tolerance; fit started at ${loadBefore}, table ends at ${load()}`);
+  console.log(`\nSpeed: n = m = ${n}, d = ${d}, eps = ${eps.toPrecision(3)} (default rule), default tolerance; fit started at ${loadBefore}, ` +
+    `table ends at ${load()}`);
   console.log(row(['measure', 'ms', 'ratio']));
   console.log(row(['fit total wall', fitMs.toFixed(0), (fitMs / 5000).toFixed(2) + ' x goal']));
   console.log(row(['fit total CPU', fitCpuMs.toFixed(0), (fitCpuMs / 5000).toFixed(2) + ' x goal']));
@@ -144,7 +145,8 @@ function speed(): void {
   console.log(row(['self K w full', squareTimesMs.toFixed(1), '1.00']));
   console.log(row(['self K w packed', symTimesMs.toFixed(1), (symTimesMs / squareTimesMs).toFixed(2)]));
   console.log(`  ${diag.convergence?.criterion}`);
-  console.log(`  minJacobianEigenvalue ${diag.minJacobianEigenvalue?.toExponential(3)}, w2Squared ${diag.cost.w2Squared.toFixed(4)}, warnings: ${diag.warnings.map((w) => w.code).join(', ') || 'none'}`);
+  console.log(`  minJacobianEigenvalue ${diag.minJacobianEigenvalue?.toExponential(3)}, w2Squared ${diag.cost.w2Squared.toFixed(4)}, warnings: ` +
+    `${diag.warnings.map((w) => w.code).join(', ') || 'none'}`);
 }
 
 /** Map change between the default tolerance and 1e-6, against the iterations and time saved (transport solve only). */
@@ -200,9 +202,9 @@ function accuracy(): void {
   }
 }
 
-/** The sweep behind DEFAULT_EPS_FACTOR: L2-UVP for eps = factor * V * n^(-2/(d+4)) (transport solve only). */
+/** The sweep of the default-eps factor on bench/truth.ts: L2-UVP for eps = factor * V * n^(-2/(d+4)) (transport solve only). */
 function sweep(): void {
-  console.log(`\nSweep of the default-eps factor (current ${DEFAULT_EPS_FACTOR}): L2-UVP %`);
+  console.log(`\nSweep of the default-eps factor (current ${defaultEpsFactor(8)} at d = 8: see defaultEpsFactor): L2-UVP %`);
   const factors = [0.03125, 0.0625, 0.125, 0.25, 0.5];
   console.log(row(['d', 'n', ...factors.map(String)]));
   for (const d of [2, 4, 8]) {
@@ -213,7 +215,7 @@ function sweep(): void {
       const xt = truth.source(2000, 13);
       const exact = truth.gradPhi(xt);
       const logA = new Float64Array(n).fill(-Math.log(n));
-      const base = defaultEps(x, logA, y, logA) / DEFAULT_EPS_FACTOR;
+      const base = defaultEps(x, logA, y, logA) / defaultEpsFactor(d);
       const cells: string[] = [];
       for (const c of factors) {
         const eps = c * base;

@@ -28,7 +28,7 @@ import { gradientNetMethod } from '../src/engine/gradient-net/method';
 import { Random } from '../src/engine/stats/random';
 import { sinkhornDivergenceAt, sinkhornPotentials } from '../src/engine/gradient-net/sinkhorn-divergence';
 import { TensorNetwork } from '../src/engine/gradient-net/tensor-network';
-import { COMMON_SETTINGS, resolveSettings } from '../src/engine/settings';
+import { resolveSettings } from '../src/engine/settings';
 import type { Points } from '../src/engine/points';
 import { knownTruth, totalVariance, l2uvp } from './truth';
 
@@ -98,7 +98,7 @@ async function sinkhornTimes(): Promise<void> {
     const y = Float64Array.from({ length: B * 5 }, () => r.normal() + 0.3);
     const setup = { blur: 2.5, diameter2: 100, iterations: 8 };
     const reps = quick ? 2 : 5;
-    let t0 = performance.now();
+    const t0 = performance.now();
     for (let i = 0; i < reps; i++) batchSinkhorn(x, B, y, B, 5, setup);
     const js = (performance.now() - t0) / reps;
     const tfTime = async (be: string, k: number) => {
@@ -118,7 +118,8 @@ async function sinkhornTimes(): Promise<void> {
     };
     const wasm = await tfTime('wasm', reps);
     const cpu = B <= 256 ? await tfTime('cpu', 1) : NaN;
-    console.log(`${String(B).padStart(5)} | ${js.toFixed(1).padStart(13)} | ${wasm.toFixed(1).padStart(12)} | ${(Number.isNaN(cpu) ? '-' : cpu.toFixed(1)).padStart(11)} | ${(wasm / js).toFixed(2)}`);
+    console.log(`${String(B).padStart(5)} | ${js.toFixed(1).padStart(13)} | ${wasm.toFixed(1).padStart(12)} | ` +
+      `${(Number.isNaN(cpu) ? '-' : cpu.toFixed(1)).padStart(11)} | ${(wasm / js).toFixed(2)}`);
   }
 }
 
@@ -139,7 +140,8 @@ function cosine(pred: Points, truth: Points, x: Points): number {
 async function accuracy(): Promise<void> {
   console.log(`\n3. Accuracy on bench/truth.ts, n = 4,000 per sample, defaults (wasm), 4,000 fresh test rows`);
   console.log('d | warm start L2-UVP % | trained L2-UVP % | cos | steps | stop | wall s | load');
-  const settingsOf = (raw: Record<string, unknown>) => resolveSettings('gradient-net', [...COMMON_SETTINGS, ...gradientNetMethod.settings], { tails: 'linear', ...raw });
+  const settingsOf = (raw: Record<string, unknown>) =>
+    resolveSettings('gradient-net', gradientNetMethod.settings, { tails: 'linear', ...raw });
   for (const d of quick ? [2] : [2, 4, 8]) {
     const truth = knownTruth(d, 1);
     const n = 4000;
@@ -156,7 +158,8 @@ async function accuracy(): Promise<void> {
     const pred = map.apply(test);
     const c = map.diagnostics().convergence!;
     const stop = c.converged ? 'plateau' : map.diagnostics().warnings.some((w) => w.code === 'time-budget') ? 'budget' : 'steps';
-    console.log(`${d} | ${warmUvp.toFixed(2).padStart(19)} | ${l2uvp(pred, exact, v).toFixed(2).padStart(16)} | ${cosine(pred, exact, test).toFixed(4)} | ${String(c.iterations).padStart(5)} | ${stop.padEnd(7)} | ${wall.toFixed(1).padStart(6)} | ${load()}`);
+    console.log(`${d} | ${warmUvp.toFixed(2).padStart(19)} | ${l2uvp(pred, exact, v).toFixed(2).padStart(16)} | ` +
+      `${cosine(pred, exact, test).toFixed(4)} | ${String(c.iterations).padStart(5)} | ${stop.padEnd(7)} | ${wall.toFixed(1).padStart(6)} | ${load()}`);
   }
 }
 
@@ -188,7 +191,9 @@ async function scenarios(): Promise<void> {
     const wall = (Date.now() - t0) / 1000;
     const dg = map.diagnostics();
     if (method === 'linear') linearAfter = dg.energyAfter!;
-    console.log(`${label.padEnd(25)} | ${dg.energyBefore!.toFixed(3).padStart(13)} | ${dg.energyAfter!.toFixed(3).padStart(12)} | ${(dg.energyAfter! / linearAfter).toFixed(2).padStart(14)} | ${String(dg.convergence?.iterations ?? '-').padStart(5)} | ${wall.toFixed(1).padStart(6)} | ${load()}`);
+    console.log(`${label.padEnd(25)} | ${dg.energyBefore!.toFixed(3).padStart(13)} | ${dg.energyAfter!.toFixed(3).padStart(12)} | ` +
+      `${(dg.energyAfter! / linearAfter).toFixed(2).padStart(14)} | ${String(dg.convergence?.iterations ?? '-').padStart(5)} | ` +
+        `${wall.toFixed(1).padStart(6)} | ${load()}`);
     map.dispose();
   }
 }

@@ -1,9 +1,12 @@
 /**
  * Scale benchmark (run: npx tsx bench/scale.bench.ts).
- * (a) A 1,048,576-row column (Excel's row limit) through the 1-D quantile map: fit + apply
- *     by the engine, and by the worksheet function path (calls.values with 1,048,576 x 1
- *     arrays of numbers for values, source and target: coercion, fit, apply, cells, payload check).
- * (b) 200,000 x 5 through the linear map (fit + apply) by the engine.
+ * (a) A 1,048,576-row column (Excel's row limit) through each 1-D map (quantile, step, and
+ *     ordinal on whole-number scores): fit, then apply to 1,048,576 FRESH values (a new
+ *     seeded draw from the source's distribution, not the fitting rows, whose mapped copy
+ *     the fit keeps and returns at once), by the engine; and quantile by the worksheet function
+ *     path (calls.values with 1,048,576 x 1 arrays of numbers for values, source and target:
+ *     coercion, fit, apply, cells, payload check; values = fresh draw).
+ * (b) 200,000 x 5 through the linear map (fit, then apply to 200,000 fresh rows) by the engine.
  * Each scenario runs in its own child process (node --expose-gc with tsx), so that its peak
  * resident memory (process.resourceUsage().maxRSS) is its own; the child also reports
  * heapUsed and rss after a forced GC before and after the work, and the time to sort its
@@ -49,20 +52,27 @@ async function child(scenario: string): Promise<void> {
   };
   const src = normals(ROWS, 11, 50, 10);
   const tgt = normals(ROWS, 12, 3, 0.5, true);
+  const fresh = normals(ROWS, 13, 50, 10);
+  const scores = (a: Float64Array, shift: number) => a.map((v) => Math.max(0, Math.min(100, Math.round(v + shift))));
   let work: () => string;
-  if (scenario === 'quantile-engine') {
-    work = () => {
-      const m = fitMapSync('quantile', { n: ROWS, d: 1, data: src, weights: null }, { n: ROWS, d: 1, data: tgt, weights: null });
-      const out = m.apply({ n: ROWS, d: 1, data: src });
-      return `mapped ${out.n} rows`;
-    };
-  } else if (scenario === 'quantile-cells') {
+  const oneColumn = (method: string, s: Float64Array, t: Float64Array, x: Float64Array) => () => {
+    const t0 = performance.now();
+    const m = fitMapSync(method, { n: ROWS, d: 1, data: s, weights: null }, { n: ROWS, d: 1, data: t, weights: null });
+    const t1 = performance.now();
+    const out = m.apply({ n: ROWS, d: 1, data: x });
+    return `fit ${(t1 - t0).toFixed(0)} ms, applied to ${out.n} fresh rows in ${(performance.now() - t1).toFixed(0)} ms (${out.outside} outside)`;
+  };
+  if (scenario === 'quantile-engine') work = oneColumn('quantile', src, tgt, fresh);
+  else if (scenario === 'step-engine') work = oneColumn('step', src, tgt, fresh);
+  else if (scenario === 'ordinal-engine') work = oneColumn('ordinal', scores(src, 0), scores(normals(ROWS, 14, 55, 15), 0), scores(fresh, 0));
+  else if (scenario === 'quantile-cells') {
     const cells = (a: Float64Array) => Array.from(a, (v) => [v]);
     const s = cells(src);
     const t = cells(tgt);
+    const x = cells(fresh);
     work = () => {
       try {
-        const g = calls.values(s, s, t, 'quantile') as unknown[][];
+        const g = calls.values(x, s, t, 'quantile') as unknown[][];
         return `returned ${g.length} rows`;
       } catch (e) {
         return `refused: ${(e as Error).message.slice(0, 150)}...`;
@@ -72,18 +82,26 @@ async function child(scenario: string): Promise<void> {
     const r = new Random(21);
     const a = new Float64Array(LINEAR_ROWS * LINEAR_D);
     const b = new Float64Array(LINEAR_ROWS * LINEAR_D);
+    const x = new Float64Array(LINEAR_ROWS * LINEAR_D);
     for (let i = 0; i < a.length; i++) {
       a[i] = r.normal() * (1 + (i % LINEAR_D));
       b[i] = 2 * r.normal() + (i % LINEAR_D);
+      x[i] = r.normal() * (1 + (i % LINEAR_D));
     }
     work = () => {
+      const t0 = performance.now();
       const m = fitMapSync('linear', { n: LINEAR_ROWS, d: LINEAR_D, data: a, weights: null }, { n: LINEAR_ROWS, d: LINEAR_D, data: b, weights: null });
-      const out = m.apply({ n: LINEAR_ROWS, d: LINEAR_D, data: a });
-      return `mapped ${out.n} rows`;
+      const t1 = performance.now();
+      const out = m.apply({ n: LINEAR_ROWS, d: LINEAR_D, data: x });
+      return `fit ${(t1 - t0).toFixed(0)} ms, applied to ${out.n} fresh rows in ${(performance.now() - t1).toFixed(0)} ms`;
     };
   }
   // warm-up on a small slice so the JIT has compiled the hot loops
-  fitMapSync('quantile', { n: 4096, d: 1, data: src.slice(0, 4096), weights: null }, { n: 4096, d: 1, data: tgt.slice(0, 4096), weights: null }).apply({ n: 4096, d: 1, data: src.slice(0, 4096) });
+  fitMapSync('quantile', { n: 4096, d: 1, data: src.slice(0, 4096), weights: null }, { n: 4096, d: 1, data: tgt.slice(0, 4096), weights: null }).apply({
+    n: 4096,
+    d: 1,
+    data: src.slice(0, 4096),
+  });
   const sortCopy = src.slice();
   const t0 = performance.now();
   sortCopy.sort();
@@ -122,10 +140,20 @@ function runChild(scenario: string): Result {
   }
 }
 
+/** The 1, 5 and 15 minute load averages where the system reports them (Linux), else "unknown". */
+function loadAverage(): string {
+  try {
+    // eslint-disable-next-line @typescript-eslint/no-require-imports
+    return (require('fs') as typeof import('fs')).readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).join(' ');
+  } catch {
+    return 'unknown';
+  }
+}
+
 function parent(): void {
-  console.log(`Scale benchmark: ${ROWS.toLocaleString('en-US')}-row column (quantile), ${LINEAR_ROWS.toLocaleString('en-US')} x ${LINEAR_D} (linear); each scenario in its own process`);
+  console.log(`Scale benchmark: ${ROWS.toLocaleString('en-US')}-row column (quantile, step, ordinal), ${LINEAR_ROWS.toLocaleString('en-US')} x ${LINEAR_D} (linear); maps applied to fresh values; each scenario in its own process; load ${loadAverage()}`);
   const rows: string[][] = [['scenario', 'ms', 'sort ms', 'x sort', 'peak RSS MB', 'RSS before MB', 'heap before MB', 'heap after MB', 'outcome']];
-  for (const s of ['quantile-engine', 'quantile-cells', 'linear-engine']) {
+  for (const s of ['quantile-engine', 'step-engine', 'ordinal-engine', 'quantile-cells', 'linear-engine']) {
     const r = runChild(s);
     rows.push([
       r.scenario,
@@ -141,7 +169,9 @@ function parent(): void {
   }
   const widths = rows[0].map((_, k) => Math.max(...rows.map((row) => (k === rows[0].length - 1 ? 0 : row[k].length))));
   for (const row of rows) console.log(row.map((c, k) => (k === row.length - 1 ? c : c.padStart(widths[k]))).join('  '));
-  console.log('x sort: the scenario time over the time to sort the 1,048,576-value column with Float64Array.prototype.sort, both measured in the same process.');
+  console.log(
+    'x sort: the scenario time over the time to sort the 1,048,576-value column with Float64Array.prototype.sort, both measured in the ' + 'same process.',
+  );
   console.log('peak RSS: the process high-water mark (includes the input arrays and the runtime, about 60-100 MB with tsx).');
 }
 

@@ -2,7 +2,7 @@
  * Run: npx tsx scripts/make-demo-data.ts   (the output is committed; rerunning gives identical files)
  *
  * Scenarios (all invented for Remap's demos):
- * 1. Survey waves: two waves of the "Harbourside Household Panel". Wave 2 used a new
+ * 1. Survey waves: two independent waves of the "Harbourside Living Conditions Survey" (a repeated cross-section). Wave 2 used a new
  *    questionnaire: income was asked net of a levy (lower, more compressed) and the 0-10
  *    satisfaction question had friendlier wording (scores drift up). Each row has a survey weight.
  * 2. Scenario alignment: 5,000 scenarios of three risk factors from an in-house model,

@@ -23,6 +23,8 @@ export interface DemoWorkbook {
   readonly title: string;
   readonly build: () => Workbook;
   readonly plots: readonly PlotSpec[];
+  /** Ranges every fitted map of the workbook is compared on (the same rows for all), when the maps should be put side by side. */
+  readonly compareOn?: { readonly source: string; readonly target: string };
 }
 
 /** The gradient-net settings the demo uses: modest, so the whole demo stays near a minute on 2 cores. */
@@ -92,12 +94,12 @@ function surveyWaves(): Workbook {
   const e1 = n1 + 1;
   const e2 = n2 + 1;
   const wb = newWorkbook();
-  about(wb, 'Harbourside Household Panel: putting wave 2 on wave 1\'s scale (invented data)', [
-    'The Harbourside Household Panel is an invented survey. Wave 2 used a new questionnaire: income was asked net of a levy, so it came out lower and more compressed, and the 0-10 satisfaction question got friendlier wording, so scores drifted up. The households are different people in each wave, so there are no pairs to match: only the two distributions.',
+  about(wb, 'Harbourside Living Conditions Survey (two independent waves): putting wave 2 on wave 1\'s scale (invented data)', [
+    'The Harbourside Living Conditions Survey is an invented survey; each wave is an independent sample of households (a repeated cross-section, not a panel). Wave 2 used a new questionnaire: income was asked net of a levy, so it came out lower and more compressed, and the 0-10 satisfaction question got friendlier wording, so scores drifted up. The households are different people in each wave, so there are no pairs to match: only the two distributions.',
     'Sheet Wave2, column F, holds each wave-2 income on wave 1\'s scale: the continuous quantile map, with both waves\' survey weights honoured. A household at wave 2\'s weighted 30th percentile gets wave 1\'s weighted 30th-percentile income:',
-    `=REMAP.VALUES(B2:B${e2}, B2:B${e2}, Wave1!B2:B${e1}, "quantile", D2:D${e2}, Wave1!D2:D${e1})`,
+    `=REMAP.VALUES(B2:B${e2}, B2:B${e2}, Wave1!B2:B${e1}, "quantile", , D2:D${e2}, Wave1!D2:D${e1})`,
     'Column G does the same for the satisfaction score with the ordinal method (equipercentile equating of whole-number scores, Kolen & Brennan), again with the weights:',
-    `=REMAP.VALUES(C2:C${e2}, C2:C${e2}, Wave1!C2:C${e1}, "ordinal", D2:D${e2}, Wave1!D2:D${e1})`,
+    `=REMAP.VALUES(C2:C${e2}, C2:C${e2}, Wave1!C2:C${e1}, "ordinal", , D2:D${e2}, Wave1!D2:D${e1})`,
     'Sheet Check compares weighted means and medians before and after, gives REMAP.COST (how far wave 2 had to move, as a squared 2-Wasserstein distance), and fits the same two maps with REMAP.FIT so that REMAP.REPORT can list their diagnostics: rows used, cost, how close the mapped wave 2 came to wave 1 (energy distance, KS) and any warnings.',
     'Things to try: change a weight in Wave2!D and watch the harmonised incomes move; replace "quantile" with "step" to get only values that occur in wave 1.',
   ]);
@@ -105,8 +107,8 @@ function surveyWaves(): Workbook {
   const ws2 = dataSheet(wb, 'Wave2', w2, [12, 12, 13, 10, 3, 22, 22]);
   label(ws2, 'F1', 'income on wave 1 scale');
   label(ws2, 'G1', 'satisfaction on wave 1 scale');
-  formula(ws2, 'F2', `REMAP.VALUES(B2:B${e2}, B2:B${e2}, Wave1!B2:B${e1}, "quantile", D2:D${e2}, Wave1!D2:D${e1})`, n2, 1);
-  formula(ws2, 'G2', `REMAP.VALUES(C2:C${e2}, C2:C${e2}, Wave1!C2:C${e1}, "ordinal", D2:D${e2}, Wave1!D2:D${e1})`, n2, 1);
+  formula(ws2, 'F2', `REMAP.VALUES(B2:B${e2}, B2:B${e2}, Wave1!B2:B${e1}, "quantile", , D2:D${e2}, Wave1!D2:D${e1})`, n2, 1);
+  formula(ws2, 'G2', `REMAP.VALUES(C2:C${e2}, C2:C${e2}, Wave1!C2:C${e1}, "ordinal", , D2:D${e2}, Wave1!D2:D${e1})`, n2, 1);
   ws2.getColumn(6).numFmt = '#,##0';
   ws2.getColumn(7).numFmt = '0.00';
 
@@ -133,9 +135,9 @@ function surveyWaves(): Workbook {
   ['B', 'C', 'D'].forEach((c) => (ck.getCell(`${c}4`).numFmt = '0.00'));
 
   label(ck, 'A6', 'cost of moving wave 2 income onto wave 1 (squared W2)', false);
-  formula(ck, 'B6', `REMAP.COST(Wave2!B2:B${e2}, Wave1!B2:B${e1}, "quantile", Wave2!D2:D${e2}, Wave1!D2:D${e1})`);
+  formula(ck, 'B6', `REMAP.COST(Wave2!B2:B${e2}, Wave1!B2:B${e1}, "quantile", , Wave2!D2:D${e2}, Wave1!D2:D${e1})`);
   label(ck, 'A7', 'cost of moving wave 2 satisfaction (squared W2)', false);
-  formula(ck, 'B7', `REMAP.COST(Wave2!C2:C${e2}, Wave1!C2:C${e1}, "ordinal", Wave2!D2:D${e2}, Wave1!D2:D${e1})`);
+  formula(ck, 'B7', `REMAP.COST(Wave2!C2:C${e2}, Wave1!C2:C${e1}, "ordinal", , Wave2!D2:D${e2}, Wave1!D2:D${e1})`);
   label(ck, 'A8', 'income map (handle)', false);
   formula(ck, 'B8', `REMAP.FIT(Wave2!B2:B${e2}, Wave1!B2:B${e1}, "quantile", "", Wave2!D2:D${e2}, Wave1!D2:D${e1})`);
   label(ck, 'A9', 'satisfaction map (handle)', false);
@@ -159,11 +161,11 @@ function scenarioAlignment(): Workbook {
   const wb = newWorkbook();
   const fits: [string, string, string][] = [
     ['linear', `REMAP.FIT(Model!A2:C${e}, Reference!A2:C${e}, "linear")`, `REMAP.COST(Model!A2:C${e}, Reference!A2:C${e}, "linear")`],
-    ['entropic', `REMAP.FIT(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`, `REMAP.COST(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", , , "seed=7")`],
+    ['entropic', `REMAP.FIT(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`, `REMAP.COST(Model!A2:C${eE}, Reference!A2:C${eE}, "entropic", "seed=7")`],
     [
       'gradient-net',
       `REMAP.FIT(Model!A2:C${e}, Reference!A2:C${e}, "gradient-net", "${DEMO_GRADIENT_NET_SETTINGS}")`,
-      `REMAP.COST(Model!A2:C${e}, Reference!A2:C${e}, "gradient-net", , , "${DEMO_GRADIENT_NET_SETTINGS}")`,
+      `REMAP.COST(Model!A2:C${e}, Reference!A2:C${e}, "gradient-net", "${DEMO_GRADIENT_NET_SETTINGS}")`,
     ],
   ];
   about(wb, 'Aligning a model\'s scenarios to a reference set (invented data)', [
@@ -273,7 +275,7 @@ function whatIf(): Workbook {
 export const DEMO_WORKBOOKS: readonly DemoWorkbook[] = [
   {
     file: 'survey-waves.xlsx',
-    title: 'Survey waves (Harbourside Household Panel)',
+    title: 'Survey waves (Harbourside Living Conditions Survey, two independent waves)',
     build: surveyWaves,
     plots: [
       {
@@ -316,6 +318,7 @@ export const DEMO_WORKBOOKS: readonly DemoWorkbook[] = [
     file: 'scenario-alignment.xlsx',
     title: 'Scenario alignment (model -> reference, 3 risk factors)',
     build: scenarioAlignment,
+    compareOn: { source: 'Model!A2:C5001', target: 'Reference!A2:C5001' },
     plots: [
       {
         file: 'scenarios-before-scatter.svg',

@@ -5,6 +5,7 @@
  * and checks what Office needs to load a shared-runtime add-in.
  * No build runs: the emitted file names come from the webpack configuration itself.
  */
+import { REQUIRED_SETS } from '../src/workbook/requirements';
 import fs from 'fs';
 import path from 'path';
 import zlib from 'zlib';
@@ -94,7 +95,7 @@ function readPng(file: string): { width: number; height: number; rgba: Buffer } 
   const width = buf.readUInt32BE(16);
   const height = buf.readUInt32BE(20);
   const idat: Buffer[] = [];
-  for (let off = 8; off < buf.length; ) {
+  for (let off = 8; off < buf.length;) {
     const len = buf.readUInt32BE(off);
     const type = buf.subarray(off + 4, off + 8).toString('ascii');
     if (type === 'IDAT') idat.push(buf.subarray(off + 8, off + 8 + len));
@@ -142,10 +143,26 @@ describe('manifest.xml identity', () => {
     expect(shortStrings.get(point.Namespace[0].$.resid)).toBe('REMAP');
   });
 
-  test('the requirement sets ask for custom functions and the shared runtime', () => {
-    // Source: Office add-in manifest schema (common practice): <Requirements><Sets><Set Name MinVersion/>.
+  test('the requirement sets ask for the Excel API the code uses, custom functions and the shared runtime, as the pane checks them', () => {
+    // Source: Office add-in manifest schema (common practice): <Requirements><Sets><Set Name MinVersion/>;
+    // Excel JavaScript API requirement sets: customXmlParts is ExcelApi 1.5, Worksheet.getRangeByIndexes 1.7.
     const sets = (app.Requirements?.[0]?.Sets?.[0]?.Set ?? []).map((s: Xml) => `${s.$.Name} ${s.$.MinVersion}`);
-    expect(sets).toEqual(expect.arrayContaining(['CustomFunctionsRuntime 1.1', 'SharedRuntime 1.1']));
+    expect(sets).toEqual(expect.arrayContaining(['ExcelApi 1.7', 'CustomFunctionsRuntime 1.1', 'SharedRuntime 1.1']));
+    expect([...REQUIRED_SETS].map((r) => `${r.name} ${r.version}`).sort()).toEqual([...sets].sort());
+  });
+
+  test('the fit worker loads lazily split code with importScripts, as a worker must', () => {
+    // Source: webpack 5 documentation, entry descriptor chunkLoading ('jsonp' adds <script> tags, which a worker has no document for)
+    expect(config.entry['fit-worker']).toMatchObject({ import: './src/fits/worker/fit-worker.ts', chunkLoading: 'import-scripts' });
+  });
+
+  test('support and learn-more links open the help page the build serves, not the pane', () => {
+    // Source: design choice (a page of help, not the pane itself)
+    const support = app.SupportUrl[0].$.DefaultValue;
+    const learnMore = urls.get(host.DesktopFormFactor[0].GetStarted[0].LearnMoreUrl[0].$.resid);
+    expect(support).toBe('https://localhost:3000/help.html');
+    expect(learnMore).toBe(support);
+    expect(emittedNames().has('help.html')).toBe(true);
   });
 });
 

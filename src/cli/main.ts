@@ -4,9 +4,11 @@ import type { TransportMap } from '../engine/map';
 import { parseMapJSON } from '../engine/map-json';
 import { getMethod, listMethods, restoreMap, settingSpecs, startFit } from '../engine/methods';
 import { parseSettingsText } from '../engine/settings';
-import { CellError, type CellIn } from '../functions/cells';
-import { readSample, readValues, writeValues, type ReadSample } from '../functions/coerce';
+import { CellError, type CellIn } from '../input/cells';
+import { readSample, readValues, writeValues, type ReadSample } from '../input/coerce';
 import { csvCell, formatCSV, parseCSV } from './csv';
+import { CommandUsageError, MORE_COMMANDS, runMoreCommand } from './more-commands';
+import { DIALECT_FLAGS, MOMENT_FLAGS, route, SQL_FLAGS, SQL_SUMMARY } from './route';
 
 /**
  * The `remap` command: CSV in, CSV or JSON out, through the same coercion
@@ -26,17 +28,19 @@ class UsageError extends Error {}
 
 const COMMANDS: Record<string, { flags: string[]; summary: string }> = {
   fit: {
-    flags: ['source', 'target', 'method', 'columns', 'source-weights', 'target-weights', 'settings', 'seed', 'tails', 'out'],
+    flags: ['source', 'target', 'method', 'columns', 'source-weights', 'target-weights', 'settings', 'seed', 'tails', 'out', ...MOMENT_FLAGS, ...DIALECT_FLAGS],
     summary: 'remap fit --source S.csv --target T.csv [--method M] [--columns a,b] [--source-weights COL] [--target-weights COL] [--settings "k=v; ..."] [--seed N] [--tails clamp|linear] --out model.json',
   },
-  apply: { flags: ['model', 'input', 'out'], summary: 'remap apply --model model.json --input X.csv [--out Y.csv]' },
-  invert: { flags: ['model', 'input', 'out'], summary: 'remap invert --model model.json --input Y.csv [--out X.csv]' },
+  apply: { flags: ['model', 'input', 'out', ...DIALECT_FLAGS], summary: 'remap apply --model model.json --input X.csv [--out Y.csv]' },
+  invert: { flags: ['model', 'input', 'out', ...DIALECT_FLAGS], summary: 'remap invert --model model.json --input Y.csv [--out X.csv]' },
   cost: {
-    flags: ['source', 'target', 'method', 'columns', 'source-weights', 'target-weights', 'settings', 'seed', 'tails'],
+    flags: ['source', 'target', 'method', 'columns', 'source-weights', 'target-weights', 'settings', 'seed', 'tails', ...MOMENT_FLAGS, ...DIALECT_FLAGS],
     summary: 'remap cost --source S.csv --target T.csv [--method M] [same column, weight and settings options as fit]',
   },
   report: { flags: ['model'], summary: 'remap report --model model.json' },
   methods: { flags: [], summary: 'remap methods' },
+  ...MORE_COMMANDS,
+  sql: { flags: SQL_FLAGS, summary: SQL_SUMMARY },
 };
 
 function usage(): string {
@@ -246,12 +250,16 @@ function oneLine(message: string): string {
 }
 
 /** Runs one command; returns the process exit code. */
-export async function main(argv: readonly string[], io: CliIO): Promise<number> {
+export async function main(argv: readonly string[], cliIO: CliIO): Promise<number> {
   let command = '';
+  let io = cliIO;
   try {
     const parsed = parseArgs(argv);
     command = parsed.command;
     const flags = parsed.flags;
+    const routed = await route(command, flags, io);
+    if ('code' in routed) return routed.code;
+    io = routed.io;
     switch (command) {
       case 'fit': {
         const out = need(flags, 'out', 'fit');
@@ -300,9 +308,10 @@ export async function main(argv: readonly string[], io: CliIO): Promise<number> 
         return 0;
       }
     }
+    if (command in MORE_COMMANDS) return await runMoreCommand(command, flags, io);
     throw new UsageError(`unknown command "${command}"`);
   } catch (e) {
-    if (e instanceof UsageError) {
+    if (e instanceof UsageError || e instanceof CommandUsageError) {
       if (e.message) {
         io.stderr(`remap: ${oneLine(e.message)}\n`);
         return 2;

@@ -64,6 +64,7 @@ export function checkMapJSON(raw: unknown): MapJSON {
 }
 
 const COST_KINDS = new Set(['exact-1d', 'per-column-1d', 'bures', 'assignment', 'sinkhorn-divergence', 'mapped']);
+const COST_BOUNDS = new Set(['exact', 'lower', 'estimate']);
 const OPTIONAL_FIGURES = ['energyBefore', 'energyAfter', 'ksMaxAfter', 'minJacobianEigenvalue'] as const;
 
 /**
@@ -79,6 +80,18 @@ function checkFitRecord(fitted: Record<string, unknown>, bad: (what: string) => 
   if (cost.w1 !== undefined && typeof cost.w1 !== 'number') bad('"fitted.cost.w1" is not a number');
   if (cost.perColumn !== undefined && !(Array.isArray(cost.perColumn) && cost.perColumn.every((v) => typeof v === 'number'))) bad('"fitted.cost.perColumn" is not a list of numbers');
   if (typeof cost.note !== 'string') bad('"fitted.cost.note" is not text');
+  if (cost.bound !== undefined && !COST_BOUNDS.has(cost.bound as string)) bad('"fitted.cost.bound" is not exact, lower or estimate');
+  if (cost.label !== undefined && typeof cost.label !== 'string') bad('"fitted.cost.label" is not text');
+  if (cost.units !== undefined && cost.units !== 'raw' && cost.units !== 'standardised') bad('"fitted.cost.units" is not raw or standardised');
+  const eff = fitted.effectiveSize as Record<string, unknown> | undefined;
+  if (eff !== undefined && !(isPlainObject(eff) && typeof eff.source === 'number' && typeof eff.target === 'number')) bad('"fitted.effectiveSize" is not a pair of numbers');
+  const cmp = fitted.comparison as Record<string, unknown> | undefined;
+  if (cmp !== undefined) {
+    const pair = (v: unknown) => isPlainObject(v) && isCount(v.source) && isCount(v.target);
+    if (!isPlainObject(cmp) || (cmp.basis !== 'fitting rows' && cmp.basis !== 'rows given') || !pair(cmp.ks) || !pair(cmp.energy) || typeof cmp.note !== 'string' || !(cmp.seed === null || isCount(cmp.seed))) {
+      bad('"fitted.comparison" does not say which rows the comparison used');
+    }
+  }
   for (const f of OPTIONAL_FIGURES) if (fitted[f] !== undefined && typeof fitted[f] !== 'number') bad(`"fitted.${f}" is not a number`);
   const c = fitted.convergence as Record<string, unknown> | undefined;
   if (c !== undefined) {

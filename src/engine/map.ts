@@ -3,9 +3,10 @@ import type { Settings } from './settings';
 
 /**
  * The one interface every fitted map honours, whatever the method. A map is
- * fitted once (by its method's `fit`) and is read-only afterwards, except for
- * the running count of applied rows that fell outside the fitted range, which
- * `diagnostics()` reports.
+ * fitted once (by its method's `fit`) and is read-only afterwards: applying it
+ * changes nothing in it, so its report never depends on which cells were
+ * calculated first. Each call's own rows outside the fitted range are counted
+ * in its `Mapped.outside`, and `extrapolationWarning` (outside.ts) words them.
  */
 
 /** Method names, as typed in formulas and on the command line. */
@@ -16,6 +17,13 @@ export interface Mapped extends Points {
   /** Rows with at least one coordinate outside the range the map was fitted on (source range for apply, target range for invert). */
   readonly outside: number;
 }
+
+/**
+ * How a cost figure relates to the squared 2-Wasserstein distance between the
+ * source and target samples: 'exact' (it is that distance), 'lower' (a proven
+ * lower bound on it), 'estimate' (neither: an approximation, or another quantity).
+ */
+export type CostBound = 'exact' | 'lower' | 'estimate';
 
 /** What a map's transport cost is and how it was computed. */
 export interface CostReport {
@@ -36,6 +44,42 @@ export interface CostReport {
   readonly perColumn?: readonly number[];
   /** One sentence saying what the figure is. */
   readonly note: string;
+  /** How the figure relates to the samples' squared W2; filled from `kind` by `labelCost` when a method leaves it out. */
+  readonly bound?: CostBound;
+  /** A short name every door prints beside the number, e.g. "squared W2, lower bound (sum over columns)". */
+  readonly label?: string;
+  /** The units the figure is in: the data's own ('raw') or each column divided by its pooled spread ('standardised'). */
+  readonly units?: 'raw' | 'standardised';
+}
+
+/** A cost with its bound and label always present, as maps report it. */
+export interface LabelledCost extends CostReport {
+  readonly bound: CostBound;
+  readonly label: string;
+}
+
+/** Rows per side: how many there were, or how many a figure used. */
+export interface RowCounts {
+  readonly source: number;
+  readonly target: number;
+}
+
+/**
+ * Which rows the comparison figures (energy distance before and after, KS
+ * after) were measured on. Figures of two maps compare only when both were
+ * measured on the same rows: use `compareOn` to measure several maps on one set.
+ */
+export interface ComparisonRows {
+  /** 'fitting rows': each map's own fitting samples; 'rows given': the rows a caller passed to compareOn. */
+  readonly basis: 'fitting rows' | 'rows given';
+  /** Rows per side the KS statistic used (all of them). */
+  readonly ks: RowCounts;
+  /** Rows per side the energy distances used: a seeded subsample when a side is larger than the cap and d > 1. */
+  readonly energy: RowCounts;
+  /** The subsample's seed, or null when every row was used. */
+  readonly seed: number | null;
+  /** The same in words, for reports. */
+  readonly note: string;
 }
 
 export type WarningCode =
@@ -50,6 +94,8 @@ export type WarningCode =
   | 'source-rows-only'
   | 'time-budget'
   | 'unequal-sizes'
+  | 'different-rows'
+  | 'compacted'
   | 'kept-linear-start';
 
 /** A plain-language caution with what to do about it. */
@@ -76,7 +122,9 @@ export interface Diagnostics {
   readonly d: number;
   readonly columns: readonly string[] | null;
   readonly dropped: { readonly source: number; readonly target: number };
-  readonly cost: CostReport;
+  /** Kish's effective sample size per side, (sum w)^2 / sum w^2 (Kish 1965, Survey Sampling); equals the rows when unweighted. Absent when unknown. */
+  readonly effectiveSize?: RowCounts;
+  readonly cost: LabelledCost;
   /** Energy distance (Szekely & Rizzo) between source and target, and between mapped source and target. */
   readonly energyBefore?: number;
   readonly energyAfter?: number;
@@ -85,9 +133,13 @@ export interface Diagnostics {
   /** Smallest eigenvalue of the symmetrised Jacobian over the source rows (>= 0 certifies monotone). */
   readonly minJacobianEigenvalue?: number;
   readonly convergence?: Convergence;
-  /** Rows given to apply/invert so far, and how many lay outside the fitted range. */
-  readonly applied: { readonly rows: number; readonly outside: number };
+  /** Which rows energyBefore, energyAfter and ksMaxAfter were measured on. */
+  readonly comparison?: ComparisonRows;
+  /** What happens to values outside the fitted range for this method and settings, in words. */
+  readonly outside: string;
   readonly warnings: readonly Warning[];
+  /** One line shown even when there are no warnings. */
+  readonly reminder: string;
 }
 
 /** The serialised form: what REMAP.SAVE returns, the CLI writes, and the workbook stores. */
@@ -114,6 +166,8 @@ export interface FitRecord {
   readonly ksMaxAfter?: number;
   readonly minJacobianEigenvalue?: number;
   readonly convergence?: Convergence;
+  readonly comparison?: ComparisonRows;
+  readonly effectiveSize?: RowCounts;
   readonly warnings: readonly Warning[];
 }
 
@@ -121,11 +175,14 @@ export interface TransportMap {
   readonly method: MethodName;
   /** Number of columns the map takes and returns. */
   readonly d: number;
+  /** The resolved settings the map was fitted with. */
+  readonly settings: Settings;
   /** T(x) for each row of `x` (x.d must equal d). Never mutates x. */
   apply(x: Points): Mapped;
   /** T^-1(y) for each row of `y`. Throws RemapError where the method has no inverse for new points. */
   invert(y: Points): Mapped;
-  cost(): CostReport;
+  cost(): LabelledCost;
+  /** Fit-time facts only: the same whatever was applied before. */
   diagnostics(): Diagnostics;
   toJSON(): MapJSON;
   /** Frees resources held outside the JS heap (tensors); a no-op for plain maps. */

@@ -14,8 +14,14 @@ export interface MethodSpec {
   readonly summary: string;
   /** 'one-column' methods fit several columns each on its own (marginals only). */
   readonly shape: 'one-column' | 'joint';
-  /** Every setting except the common ones, which `fitMap` adds. */
+  /** Every setting the method takes (include TAILS_SETTING when the method honours `tails`). */
   readonly settings: readonly SettingSpec[];
+  /**
+   * What the method does with values outside the fitted range, in words (both
+   * `tails` choices where it honours them). When left out, `outsideSummary`
+   * uses the product's text for the method (outside.ts).
+   */
+  readonly outside?: string;
   /** The fewest rows (with positive weight) each sample needs, given d. */
   minRows(d: number): number;
   /** True when `fit` trains in the background and returns a Promise. */

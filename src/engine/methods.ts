@@ -3,7 +3,8 @@ import { RemapError } from './errors';
 import type { FitContext, MapJSON, MethodName, TransportMap } from './map';
 import type { MethodSpec } from './method';
 import type { Sample } from './points';
-import { COMMON_SETTINGS, resolveSettings, type SettingSpec, type Settings } from './settings';
+import { resolveSettings, type SettingSpec, type Settings } from './settings';
+import { outsideBothTails } from './outside';
 import { checkSameColumns, checkSample, checkScale } from './validate';
 import { entropicMethod } from './entropic/method';
 import { gradientNetMethod } from './gradient-net/method';
@@ -37,10 +38,23 @@ export function getMethod(name: string): MethodSpec {
   return m;
 }
 
-/** The full list of settings a method takes (its own plus the common ones). */
+/**
+ * The full list of settings a method takes: its own. No setting is common to
+ * every method (`tails` is listed by the methods that honour it: TAILS_SETTING).
+ */
 export function settingSpecs(method: MethodSpec): readonly SettingSpec[] {
-  const own = new Set(method.settings.map((s) => s.name));
-  return [...COMMON_SETTINGS.filter((s) => !own.has(s.name)), ...method.settings];
+  return method.settings;
+}
+
+/**
+ * What `method` does with values outside the fitted range, in words, for the
+ * pane, reports and the README: its spec's own `outside` text, else the
+ * product's text for it (outside.ts), both tails choices named where it has them.
+ * O(1).
+ * @example outsideSummary(getMethod('linear')) // 'the same affine map continues beyond the fitted range: ...'
+ */
+export function outsideSummary(method: MethodSpec): string {
+  return method.outside ?? outsideBothTails(method.name);
 }
 
 /** Validates samples and settings for `method`; returns the resolved settings. */

@@ -23,16 +23,28 @@ export interface SettingSpec {
   readonly describe: string;
 }
 
-/** Settings every method takes. */
-export const COMMON_SETTINGS: readonly SettingSpec[] = [
-  {
-    name: 'tails',
-    type: 'choice',
-    default: 'clamp',
-    choices: ['clamp', 'linear'],
-    describe: 'What happens to values outside the fitted range: clamp to the edge (default) or continue the end slope linearly.',
-  },
-];
+/**
+ * The `tails` setting, for the methods that honour it (quantile, step, ordinal,
+ * gradient-net): what happens to values outside the fitted range. Methods that
+ * do not honour it (linear, pairs, entropic) do not list it, so giving it to
+ * them is an error that lists what they take; each method's `outside` text
+ * (outside.ts) says what it does instead.
+ */
+export const TAILS_SETTING = {
+  name: 'tails',
+  type: 'choice',
+  default: 'clamp',
+  choices: ['clamp', 'linear'],
+  describe: 'What happens to values outside the fitted range: clamp to the edge (default) or continue the end slope linearly.',
+} as const satisfies SettingSpec;
+
+/**
+ * Settings every method takes: none. `tails` moved into the specs of the
+ * methods that honour it (TAILS_SETTING).
+ * @deprecated Lists only TAILS_SETTING, for callers that still build a
+ *   gradient-net settings list from it; `settingSpecs` no longer reads it.
+ */
+export const COMMON_SETTINGS: readonly SettingSpec[] = [TAILS_SETTING];
 
 /**
  * Checks user-given settings against `specs` and fills in defaults. Names are
@@ -40,7 +52,7 @@ export const COMMON_SETTINGS: readonly SettingSpec[] = [
  * An unknown name is an error that lists the known ones.
  * Cost: O(#specs + #raw).
  * @throws RemapError naming the setting, the method and the allowed range.
- * @example resolveSettings('linear', LINEAR_SETTINGS, { RIDGE: '0.1' }) // { tails: 'clamp', ridge: 0.1 }
+ * @example resolveSettings('linear', LINEAR_SETTINGS, { RIDGE: '0.1' }) // { ridge: 0.1, units: 'standardised' }
  */
 export function resolveSettings(method: string, specs: readonly SettingSpec[], raw: Readonly<Record<string, unknown>> = {}): Settings {
   const out: Record<string, SettingValue> = {};
@@ -102,7 +114,7 @@ export function describeRange(spec: SettingSpec): string {
 }
 
 /**
- * Parses settings written in one text: `"eps=0.05; seed=7"` (separators `;` or
+ * Parses settings written in one text: `"smoothing=0.05; seed=7"` (separators `;` or
  * `,` or new lines, `=` or `:` between name and value). Empty text gives {}.
  * @throws RemapError on a piece without a name or value.
  * @example parseSettingsText('seed=7; tails=linear') // { seed: '7', tails: 'linear' }
@@ -138,10 +150,10 @@ export type SettingsOf<S extends readonly SettingSpec[]> = { readonly [K in S[nu
 /**
  * The typed view of `settings` for one method's own `specs`: each spec's value,
  * checked and with its default where missing (so a direct engine call may pass
- * `{}`); settings not in `specs` (the common ones, such as `tails`) are ignored.
+ * `{}`); settings not in `specs` are ignored.
  * The one way methods read their settings. O(#specs + #settings).
  * @throws RemapError naming the setting and its allowed values, for a value outside its spec.
- * @example settingsOf(LINEAR_SETTINGS, { ridge: 0.5, tails: 'clamp' }) // { ridge: 0.5 }
+ * @example settingsOf(LINEAR_SETTINGS, { ridge: 0.5, seed: 7 }) // { ridge: 0.5, units: 'standardised' }
  */
 export function settingsOf<const S extends readonly SettingSpec[]>(specs: S, settings: Readonly<Record<string, unknown>>, method = 'this method'): SettingsOf<S> {
   const own: Record<string, unknown> = {};

@@ -1,5 +1,5 @@
 import { isRemapError } from '../engine/errors';
-import { CellError, type Grid } from './cells';
+import { CellError, type Grid } from '../input';
 
 /**
  * Turns engine errors and per-cell errors into spreadsheet errors, keeping the

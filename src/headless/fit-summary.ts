@@ -1,5 +1,5 @@
 import type { Diagnostics } from '../engine/map';
-import { recall } from '../functions/store';
+import { recall } from '../fits';
 import type { ComputedFormula } from './run-workbook';
 
 /** What the demo prints for one REMAP.FIT cell. */
@@ -73,10 +73,13 @@ export function formatSummary(s: WorkbookSummary): string[] {
       lines.push(`  ${f.cell}: no map (see the error below)`);
       continue;
     }
-    const conv = d.convergence ? `, ${d.convergence.converged ? 'converged' : 'not converged'} after ${d.convergence.iterations} ${d.method === 'gradient-net' ? 'steps' : 'iterations'}` : '';
+    const conv = d.convergence
+      ? `, ${d.convergence.converged ? 'converged' : 'not converged'} after ${d.convergence.iterations} ${d.method === 'gradient-net' ? 'steps' : 'iterations'}`
+      : '';
     lines.push(`  ${f.cell}  ${d.method}, ${d.n.source} -> ${d.n.target} rows x ${d.d} column${d.d === 1 ? '' : 's'}${conv}`);
     lines.push(
-      `      cost (squared W2) ${short(d.cost.w2Squared)}   energy distance ${short(d.energyBefore)} -> ${short(d.energyAfter)}   largest KS after ${short(d.ksMaxAfter)}` +
+      `      cost (squared W2) ${short(d.cost.w2Squared)}   energy distance ${short(d.energyBefore)} -> ${short(d.energyAfter)}   largest KS ` +
+        `after ${short(d.ksMaxAfter)}` +
         (d.minJacobianEigenvalue !== undefined ? `   smallest Jacobian eigenvalue ${short(d.minJacobianEigenvalue)}` : ''),
     );
     lines.push(`      warnings: ${d.warnings.length === 0 ? 'none' : d.warnings.map((w) => w.code).join(', ')}`);

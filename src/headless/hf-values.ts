@@ -1,5 +1,5 @@
 import { CellError as HfCellError, EmptyValue, ErrorType, SimpleRangeValue } from 'hyperformula';
-import { CellError, type CellIn, type CellOut } from '../functions/cells';
+import { CellError, type CellIn, type CellOut } from '../input/cells';
 import type { ErrorFactory } from '../functions/excel-errors';
 
 /**

@@ -11,7 +11,10 @@ import { parseA1, type CellResult } from './workbook-io';
 export function rangeNumbers(values: Readonly<Record<string, CellResult[][]>>, ref: string): { rows: number; cols: number; data: Float64Array } {
   const bang = ref.lastIndexOf('!');
   if (bang < 0) throw new Error(`"${ref}" names no sheet; write it as Sheet!A1:B10.`);
-  const sheet = ref.slice(0, bang).replace(/^'(.*)'$/, '$1').replace(/''/g, "'");
+  const sheet = ref
+    .slice(0, bang)
+    .replace(/^'(.*)'$/, '$1')
+    .replace(/''/g, "'");
   const grid = values[sheet];
   if (!grid) throw new Error(`There is no sheet "${sheet}" (sheets: ${Object.keys(values).join(', ')}).`);
   const { r0, c0, r1, c1 } = parseA1(ref.slice(bang + 1));

@@ -9,7 +9,7 @@ import {
   type ImplementedFunctions,
 } from 'hyperformula';
 import * as calls from '../functions/calls';
-import type { CellIn } from '../functions/cells';
+import type { CellIn } from '../input/cells';
 import { guard, setErrorFactory } from '../functions/excel-errors';
 import { argFromHf, cellToHf, gridToHf, hfErrorFactory } from './hf-values';
 import { cellKey, currentRun } from './run-context';
@@ -55,10 +55,12 @@ interface Spec {
   readonly size?: SizeOf;
 }
 
-const shapeOf = (k: number): SizeOf => (sizes) => {
-  const s = sizes[k];
-  return s ? [Math.max(1, s.height), Math.max(1, s.width)] : [1, 1];
-};
+const shapeOf =
+  (k: number): SizeOf =>
+  (sizes) => {
+    const s = sizes[k];
+    return s ? [Math.max(1, s.height), Math.max(1, s.width)] : [1, 1];
+  };
 
 const pairsSize: SizeOf = (sizes, literals) => {
   const s = sizes[0];
@@ -96,22 +98,52 @@ export class RemapPlugin extends FunctionPlugin {
     ]),
   );
 
-  values(ast: ProcedureAst, state: State) { return this.call('REMAP.VALUES', ast, state); }
-  cost(ast: ProcedureAst, state: State) { return this.call('REMAP.COST', ast, state); }
-  gausscost(ast: ProcedureAst, state: State) { return this.call('REMAP.GAUSSCOST', ast, state); }
-  fit(ast: ProcedureAst, state: State) { return this.call('REMAP.FIT', ast, state); }
-  apply(ast: ProcedureAst, state: State) { return this.call('REMAP.APPLY', ast, state); }
-  invert(ast: ProcedureAst, state: State) { return this.call('REMAP.INVERT', ast, state); }
-  report(ast: ProcedureAst, state: State) { return this.call('REMAP.REPORT', ast, state); }
-  save(ast: ProcedureAst, state: State) { return this.call('REMAP.SAVE', ast, state); }
-  pairs(ast: ProcedureAst, state: State) { return this.call('REMAP.PAIRS', ast, state); }
-  load(ast: ProcedureAst, state: State) { return this.call('REMAP.LOAD', ast, state); }
+  values(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.VALUES', ast, state);
+  }
+  cost(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.COST', ast, state);
+  }
+  gausscost(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.GAUSSCOST', ast, state);
+  }
+  fit(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.FIT', ast, state);
+  }
+  apply(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.APPLY', ast, state);
+  }
+  invert(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.INVERT', ast, state);
+  }
+  report(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.REPORT', ast, state);
+  }
+  save(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.SAVE', ast, state);
+  }
+  pairs(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.PAIRS', ast, state);
+  }
+  load(ast: ProcedureAst, state: State) {
+    return this.call('REMAP.LOAD', ast, state);
+  }
 
-  valuesSize(ast: ProcedureAst, state: State) { return this.sizeFor('REMAP.VALUES', ast, state); }
-  applySize(ast: ProcedureAst, state: State) { return this.sizeFor('REMAP.APPLY', ast, state); }
-  invertSize(ast: ProcedureAst, state: State) { return this.sizeFor('REMAP.INVERT', ast, state); }
-  reportSize(ast: ProcedureAst, state: State) { return this.sizeFor('REMAP.REPORT', ast, state); }
-  pairsSize(ast: ProcedureAst, state: State) { return this.sizeFor('REMAP.PAIRS', ast, state); }
+  valuesSize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.VALUES', ast, state);
+  }
+  applySize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.APPLY', ast, state);
+  }
+  invertSize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.INVERT', ast, state);
+  }
+  reportSize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.REPORT', ast, state);
+  }
+  pairsSize(ast: ProcedureAst, state: State) {
+    return this.sizeFor('REMAP.PAIRS', ast, state);
+  }
 
   /** [rows, cols] of the result of `name` written as `ast`, from argument sizes and literal arguments only. */
   private resultSize(name: string, ast: ProcedureAst, state: State): [number, number] {

@@ -1,5 +1,6 @@
 import { Workbook } from 'exceljs';
 import { DetailedCellError, HyperFormula } from 'hyperformula';
+import { SerialQueue } from '../common/serial-queue';
 import { registerRemapPlugin } from './remap-plugin';
 import { cellKey, newRunContext, setCurrentRun, type RunContext } from './run-context';
 import { readSheets, writeResults, type CellResult, type FormulaCell } from './workbook-io';
@@ -40,7 +41,7 @@ export interface RunResult {
   readonly elapsedMs: number;
 }
 
-let queue: Promise<unknown> = Promise.resolve();
+const runs = new SerialQueue();
 
 /**
  * Calculates `workbook` (an exceljs Workbook, or the path of an .xlsx file) and
@@ -50,9 +51,7 @@ let queue: Promise<unknown> = Promise.resolve();
  * @example const r = await runWorkbook('demo-workbooks/what-if.xlsx'); r.formulas[0].block[0][0] // 'remap:quantile:...'
  */
 export function runWorkbook(workbook: Workbook | string): Promise<RunResult> {
-  const next = queue.then(() => runNow(workbook));
-  queue = next.catch(() => undefined);
-  return next;
+  return runs.run(() => runNow(workbook));
 }
 
 async function runNow(input: Workbook | string): Promise<RunResult> {

@@ -54,7 +54,11 @@ export function a1(row: number, col: number): string {
 export function parseA1(ref: string): { r0: number; c0: number; r1: number; c1: number } {
   const m = /^\$?([A-Za-z]{1,3})\$?(\d+)(?::\$?([A-Za-z]{1,3})\$?(\d+))?$/.exec(ref.trim());
   if (!m) throw new Error(`Not an A1 reference: "${ref}".`);
-  const col = (letters: string) => letters.toUpperCase().split('').reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0) - 1;
+  const col = (letters: string) =>
+    letters
+      .toUpperCase()
+      .split('')
+      .reduce((n, ch) => n * 26 + ch.charCodeAt(0) - 64, 0) - 1;
   const r0 = Number(m[2]) - 1;
   const c0 = col(m[1]);
   const r1 = m[4] ? Number(m[4]) - 1 : r0;

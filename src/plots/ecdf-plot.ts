@@ -1,4 +1,4 @@
-import { escapeXml } from './escape-xml';
+import { escapeXml } from '../common/xml-text';
 import { makeFrame, px, type PlotOptions } from './frame';
 import { seriesColour } from './palette';
 import { extentOf, sortSeries, type Series } from './series';
@@ -47,7 +47,10 @@ export function ecdfPlot(series: readonly Series[], opts: PlotOptions = {}): str
       level = s.cum[j];
     }
     pts.push(`V${px(f.y(level))}H${px(f.right)}`);
-    marks.push(`<path class="series" data-name="${escapeXml(s.name)}" d="${pts.join('')}" fill="none" stroke="${seriesColour(i)}" stroke-width="${i === 0 ? 4.5 : 1.8}"${i === 0 ? ' stroke-opacity="0.55"' : ''} stroke-linejoin="round"/>`);
+    marks.push(
+      `<path class="series" data-name="${escapeXml(s.name)}" d="${pts.join('')}" fill="none" stroke="${seriesColour(i)}" ` +
+        `stroke-width="${i === 0 ? 4.5 : 1.8}"${i === 0 ? ' stroke-opacity="0.55"' : ''} stroke-linejoin="round"/>`,
+    );
   });
   return f.head + marks.join('') + f.tail;
 }

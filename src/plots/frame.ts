@@ -1,4 +1,4 @@
-import { escapeXml } from './escape-xml';
+import { escapeXml } from '../common/xml-text';
 import { formatTick, niceTicks, type Ticks } from './nice-ticks';
 import { GRID, INK } from './palette';
 
@@ -69,7 +69,13 @@ function clampSize(v: number | undefined, fallback: number, lo: number, hi: numb
  * Cost: O(#ticks + #legend entries).
  * @example makeFrame({ width: 300 }, [0, 10], [0, 1], []).xTicks.values // [0, 2, 4, 6, 8, 10]
  */
-export function makeFrame(opts: PlotOptions, xRange: readonly [number, number], yRange: readonly [number, number], legend: readonly LegendEntry[], fixedY?: Ticks): Frame {
+export function makeFrame(
+  opts: PlotOptions,
+  xRange: readonly [number, number],
+  yRange: readonly [number, number],
+  legend: readonly LegendEntry[],
+  fixedY?: Ticks,
+): Frame {
   const width = clampSize(opts.width, 640, 200, 2000);
   const height = clampSize(opts.height, Math.max(220, Math.round(width * 0.62)), 150, 2000);
   const fontSize = width < 420 ? 10 : 12;
@@ -109,7 +115,10 @@ export function makeFrame(opts: PlotOptions, xRange: readonly [number, number], 
   );
   parts.push(`<title>${label}</title>`);
   parts.push(`<rect x="0" y="0" width="${width}" height="${height}" fill="#FFFFFF"/>`);
-  if (opts.title) parts.push(`<text x="${px(width / 2)}" y="${px(pad + fontSize + 1)}" text-anchor="middle" font-weight="bold" fill="${INK}">${escapeXml(opts.title)}</text>`);
+  if (opts.title)
+    parts.push(
+      `<text x="${px(width / 2)}" y="${px(pad + fontSize + 1)}" text-anchor="middle" font-weight="bold" fill="${INK}">${escapeXml(opts.title)}</text>`,
+    );
   let ly = pad + titleH + line / 2;
   for (const row of rows) {
     let lx = pad;
@@ -132,19 +141,22 @@ export function makeFrame(opts: PlotOptions, xRange: readonly [number, number], 
     parts.push(`<line x1="${px(xx)}" y1="${px(bottom)}" x2="${px(xx)}" y2="${px(bottom + 4)}" stroke="${INK}" stroke-width="1"/>`);
     parts.push(`<text x="${px(xx)}" y="${px(bottom + 6 + fontSize)}" text-anchor="middle" fill="${INK}">${escapeXml(formatTick(v, xTicks.step))}</text>`);
   }
-  if (opts.xLabel) parts.push(`<text x="${px((left + right) / 2)}" y="${px(height - pad)}" text-anchor="middle" fill="${INK}">${escapeXml(opts.xLabel)}</text>`);
+  if (opts.xLabel)
+    parts.push(`<text x="${px((left + right) / 2)}" y="${px(height - pad)}" text-anchor="middle" fill="${INK}">${escapeXml(opts.xLabel)}</text>`);
   if (opts.yLabel) {
     const cx = pad + fontSize;
     const cy = (top + bottom) / 2;
-    parts.push(`<text x="${px(cx)}" y="${px(cy)}" text-anchor="middle" transform="rotate(-90 ${px(cx)} ${px(cy)})" fill="${INK}">${escapeXml(opts.yLabel)}</text>`);
+    parts.push(
+      `<text x="${px(cx)}" y="${px(cy)}" text-anchor="middle" transform="rotate(-90 ${px(cx)} ${px(cy)})" fill="${INK}">${escapeXml(opts.yLabel)}</text>`,
+    );
   }
-  const tail =
-    `<path d="M${px(left)} ${px(top)}V${px(bottom)}H${px(right)}" fill="none" stroke="${INK}" stroke-width="1"/>` + '</svg>';
+  const tail = `<path d="M${px(left)} ${px(top)}V${px(bottom)}H${px(right)}" fill="none" stroke="${INK}" stroke-width="1"/>` + '</svg>';
   return { width, height, fontSize, left, right, top, bottom, xTicks, yTicks, x, y, head: parts.join(''), tail };
 }
 
 function swatch(e: LegendEntry, x: number, y: number): string {
   if (e.mark === 'point') return `<circle cx="${px(x + 8)}" cy="${px(y)}" r="3.5" fill="${e.colour}"/>`;
-  if (e.mark === 'box') return `<rect x="${px(x + 2)}" y="${px(y - 5)}" width="12" height="10" fill="${e.colour}" fill-opacity="0.35" stroke="${e.colour}" stroke-width="1.5"/>`;
+  if (e.mark === 'box')
+    return `<rect x="${px(x + 2)}" y="${px(y - 5)}" width="12" height="10" fill="${e.colour}" fill-opacity="0.35" stroke="${e.colour}" stroke-width="1.5"/>`;
   return `<line x1="${px(x)}" y1="${px(y)}" x2="${px(x + 16)}" y2="${px(y)}" stroke="${e.colour}" stroke-width="2.5"/>`;
 }

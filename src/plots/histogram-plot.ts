@@ -1,4 +1,4 @@
-import { escapeXml } from './escape-xml';
+import { escapeXml } from '../common/xml-text';
 import { makeFrame, px, type PlotOptions } from './frame';
 import { seriesColour } from './palette';
 import { extentOf, sortSeries, type Series } from './series';
@@ -7,7 +7,8 @@ import { extentOf, sortSeries, type Series } from './series';
 export interface HistogramOptions extends PlotOptions {
   /** Number of bins, 2..200 (default: the square root of the smallest series' size, kept within 8..40). */
   readonly bins?: number;
-  /** The span the bins cover (default: the data's range); values outside go into the end bins. E.g. [-0.5, 10.5] with 11 bins centres bins on the scores 0..10. */
+  /** The span the bins cover (default: the data's range); values outside go into the end bins. E.g. [-0.5, 10.5] with 11 bins centres bins on the
+   * scores 0..10. */
   readonly range?: readonly [number, number];
 }
 
@@ -28,7 +29,7 @@ export function histogramPlot(series: readonly Series[], opts: HistogramOptions 
   const sorted = series.map(sortSeries);
   const [lo, hi] = extentOf(sorted);
   const nonEmpty = sorted.filter((s) => s.sorted.length > 0);
-  const smallest = nonEmpty.length ? Math.min(...nonEmpty.map((s) => s.sorted.length)) : 1;
+  const smallest = nonEmpty.length ? Math.min(...nonEmpty.map((s) => s.rows)) : 1;
   const bins = Math.max(2, Math.min(200, Math.round(opts.bins ?? Math.max(8, Math.min(40, Math.ceil(Math.sqrt(smallest)))))));
   const given = opts.range && Number.isFinite(opts.range[0]) && Number.isFinite(opts.range[1]) && opts.range[1] > opts.range[0] ? opts.range : null;
   const a = given ? given[0] : Number.isFinite(lo) ? lo : 0;
@@ -58,7 +59,10 @@ export function histogramPlot(series: readonly Series[], opts: HistogramOptions 
     for (let k = 0; k < bins; k++) parts.push(`V${px(f.y(d[k]))}H${px(f.x(a + (k + 1) * width))}`);
     parts.push(`V${px(f.y(0))}Z`);
     const c = seriesColour(i);
-    marks.push(`<path class="series" data-name="${name}" d="${parts.join('')}" fill="${c}" fill-opacity="0.22" stroke="${c}" stroke-width="1.8" stroke-linejoin="round"/>`);
+    marks.push(
+      `<path class="series" data-name="${name}" d="${parts.join('')}" fill="${c}" fill-opacity="0.22" stroke="${c}" stroke-width="1.8" ` +
+        `stroke-linejoin="round"/>`,
+    );
   });
   return f.head + marks.join('') + f.tail;
 }

@@ -1,4 +1,4 @@
-import { escapeXml } from './escape-xml';
+import { escapeXml } from '../common/xml-text';
 import { makeFrame, px, type PlotOptions } from './frame';
 import { INK, seriesColour } from './palette';
 import { extentOf, quantileOf, sortSeries, type Series } from './series';
@@ -29,7 +29,7 @@ export function qqPlot(reference: Series, series: readonly Series[], opts: QQOpt
   const others = series.map(sortSeries);
   const all = [ref, ...others];
   const [lo, hi] = extentOf(all);
-  const maxN = Math.max(0, ...others.map((s) => Math.min(s.sorted.length, ref.sorted.length)));
+  const maxN = Math.max(0, ...others.map((s) => Math.min(s.rows, ref.rows)));
   const m = Math.max(2, Math.min(1000, Math.round(opts.points ?? Math.min(200, Math.max(2, maxN)))));
   const legend = [
     ...others.map((s, i) => ({ name: s.name, colour: seriesColour(i + 1), mark: 'point' as const })),
@@ -37,11 +37,19 @@ export function qqPlot(reference: Series, series: readonly Series[], opts: QQOpt
   ];
   const f = makeFrame({ xLabel: `${reference.name} quantiles`, yLabel: 'quantiles', ...opts }, [lo, hi], [lo, hi], legend);
   // share one range on both axes
-  const g = makeFrame({ xLabel: `${reference.name} quantiles`, yLabel: 'quantiles', ...opts }, [f.xTicks.lo, f.xTicks.hi], [f.xTicks.lo, f.xTicks.hi], legend, f.xTicks);
+  const g = makeFrame(
+    { xLabel: `${reference.name} quantiles`, yLabel: 'quantiles', ...opts },
+    [f.xTicks.lo, f.xTicks.hi],
+    [f.xTicks.lo, f.xTicks.hi],
+    legend,
+    f.xTicks,
+  );
   const marks: string[] = [];
   const a = g.xTicks.lo;
   const b = g.xTicks.hi;
-  marks.push(`<path class="diagonal" d="M${px(g.x(a))} ${px(g.y(a))}L${px(g.x(b))} ${px(g.y(b))}" stroke="${INK}" stroke-width="1" stroke-dasharray="4 3" fill="none"/>`);
+  marks.push(
+    `<path class="diagonal" d="M${px(g.x(a))} ${px(g.y(a))}L${px(g.x(b))} ${px(g.y(b))}" stroke="${INK}" stroke-width="1" stroke-dasharray="4 3" fill="none"/>`,
+  );
   const r = g.width < 420 ? 1.8 : 2.4;
   others.forEach((s, i) => {
     const c = seriesColour(i + 1);

@@ -1,7 +1,7 @@
 import { RemapError } from '../engine/errors';
 import type { Progress } from '../engine/map';
-import { runFitJob } from './fit-job';
-import type { FitDone, FitReply, FitRequest } from './fit-messages';
+import { runFitJob } from '../fits/worker/cells-job';
+import type { FitDone, FitReply, FitRequest } from '../fits/worker/messages';
 
 /** A fit the pane started: its result, and how to stop it. */
 export interface RunningFit {
@@ -66,7 +66,7 @@ export class FitRunner {
       else if (m.type === 'done') {
         cleanup();
         settle.resolve(m);
-      } else {
+      } else if (m.type === 'error') {
         cleanup();
         settle.reject(new RemapError(m.message, m.kind === 'num' || m.kind === 'na' || m.kind === 'cancelled' ? m.kind : 'value'));
       }

@@ -1,4 +1,4 @@
-import { escapeXml } from '../plots';
+import { escapeXml } from '../common/xml-text';
 
 /**
  * A small line of a fit's loss against its step, drawn as SVG text for the
@@ -27,7 +27,10 @@ export function lossCurve(points: readonly (readonly [number, number])[], width 
   const py = (y: number) => bottom - ((y - y0) / (y1 - y0 || 1)) * (bottom - top);
   const line = pts.map(([s, l]) => `${px(s).toFixed(1)},${py(f(l)).toFixed(1)}`).join(' ');
   const label = `loss ${fmt(pts[0][1])} \u2192 ${fmt(pts[pts.length - 1][1])}${log ? ' (log scale)' : ''}`;
-  return `${head}<rect x="0" y="0" width="${width}" height="${height}" fill="#fafafa" stroke="#e1e1e1"/><polyline fill="none" stroke="#106e78" stroke-width="1.5" points="${line}"/><text x="${left}" y="${height - 4}" font-size="11" fill="#424242">${escapeXml(label)}</text></svg>`;
+  return (
+    `${head}<rect x="0" y="0" width="${width}" height="${height}" fill="#fafafa" stroke="#e1e1e1"/><polyline fill="none" stroke="#106e78" ` +
+    `stroke-width="1.5" points="${line}"/><text x="${left}" y="${height - 4}" font-size="11" fill="#424242">${escapeXml(label)}</text></svg>`
+  );
 }
 
 function fmt(v: number): string {

@@ -18,11 +18,15 @@ export function diagnosticsInWords(d: Diagnostics): string[] {
   if (d.energyBefore !== undefined && d.energyAfter !== undefined) {
     const drop = d.energyBefore > 0 ? Math.round(100 * (1 - d.energyAfter / d.energyBefore)) : null;
     out.push(
-      `Energy distance to the target: ${num(d.energyBefore)} before mapping, ${num(d.energyAfter)} after (0 means the same distribution${drop !== null ? `; ${drop}% of the gap closed` : ''}).`,
+      `Energy distance to the target: ${num(d.energyBefore)} before mapping, ${num(d.energyAfter)} after (0 means the same ` +
+        `distribution${drop !== null ? `; ${drop}% of the gap closed` : ''}).`,
     );
   }
   if (d.ksMaxAfter !== undefined) {
-    out.push(`After mapping, the mapped source's share below any value differs from the target's by at most ${pct(d.ksMaxAfter)} in each column (largest KS statistic ${num(d.ksMaxAfter)}).`);
+    out.push(
+      `After mapping, the mapped source's share below any value differs from the target's by at most ${pct(d.ksMaxAfter)} in each column (largest ` +
+        `KS statistic ${num(d.ksMaxAfter)}).`,
+    );
   }
   if (d.minJacobianEigenvalue !== undefined) {
     out.push(
@@ -33,14 +37,19 @@ export function diagnosticsInWords(d: Diagnostics): string[] {
   }
   if (d.convergence) {
     const c = d.convergence;
-    out.push(c.converged ? `It converged after ${count(c.iterations)} iterations (final ${c.criterion} ${num(c.finalError)}).` : `It did not converge within ${count(c.iterations)} iterations (final ${c.criterion} ${num(c.finalError)}).`);
+    out.push(
+      c.converged
+        ? `It converged after ${count(c.iterations)} iterations (final ${c.criterion} ${num(c.finalError)}).`
+        : `It did not converge within ${count(c.iterations)} iterations (final ${c.criterion} ${num(c.finalError)}).`,
+    );
   }
   return out;
 }
 
 /**
  * Warnings as the pane lists them: the caution, then what to do. Pure; O(#warnings).
- * @example warningsInWords([{ code: 'small-sample', message: 'Only 12 rows.', action: 'Add rows.' }]) // [{ title: 'Small sample', text: 'Only 12 rows.', action: 'Add rows.' }]
+ * @example warningsInWords([{ code: 'small-sample', message: 'Only 12 rows.', action: 'Add rows.' }]) // [{ title: 'Small sample', text: 'Only 12
+ * rows.', action: 'Add rows.' }]
  */
 export function warningsInWords(ws: readonly Warning[]): { title: string; text: string; action: string }[] {
   return ws.map((w) => ({ title: TITLES[w.code] ?? w.code, text: w.message, action: w.action }));

@@ -1,6 +1,6 @@
 import { ecdfPlot, histogramPlot, qqPlot, quantileOf, scatterPlot, sortSeries, type Series } from '../plots';
 import type { ChartTable } from '../workbook/comparison-chart';
-import type { PlotSample } from './fit-messages';
+import type { PlotSample } from '../fits/worker/messages';
 
 /**
  * The pane's plots of a fit, as SVG text from src/plots: per column, the
@@ -76,5 +76,10 @@ export function chartTable(data: PlotData, k: number, steps = 100): ChartTable {
     const p = i / steps;
     rows.push([p, ...sorted.map((x) => quantileOf(x, p))]);
   }
-  return { title: `${columnName(data, k)}: quantiles of source, mapped source and target`, header: ['share', 'source', 'mapped source', 'target'], rows, sheetName: 'Remap chart' };
+  return {
+    title: `${columnName(data, k)}: quantiles of source, mapped source and target`,
+    header: ['share', 'source', 'mapped source', 'target'],
+    rows,
+    sheetName: 'Remap chart',
+  };
 }

@@ -24,10 +24,10 @@ export async function insertComparisonChart(run: ExcelRun, table: ChartTable): P
   if (table.header.length < 2 || table.rows.length === 0 || table.rows.some((r) => r.length !== table.header.length)) {
     throw new Error('insertComparisonChart: give a header of at least two names and rows of the same length.');
   }
-  return run(async (ctx) => {
-    const sheets = ctx.workbook.worksheets;
+  return run(async (context) => {
+    const sheets = context.workbook.worksheets;
     sheets.load('items/name');
-    await ctx.sync();
+    await context.sync();
     const taken = new Set(sheets.items.map((s) => s.name.toLowerCase()));
     const base = (table.sheetName ?? 'Remap chart').slice(0, 27);
     let name = base;
@@ -40,7 +40,7 @@ export async function insertComparisonChart(run: ExcelRun, table: ChartTable): P
     chart.title.text = table.title;
     chart.setPosition(sheet.getRangeByIndexes(0, table.header.length + 1, 1, 1), sheet.getRangeByIndexes(19, table.header.length + 8, 1, 1));
     sheet.activate();
-    await ctx.sync();
+    await context.sync();
     return name;
   });
 }

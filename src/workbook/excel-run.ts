@@ -5,7 +5,7 @@
  */
 
 /** Runs `batch` against a request context and returns what it returns (Excel.run's shape). */
-export type ExcelRun = <T>(batch: (ctx: Excel.RequestContext) => Promise<T>) => Promise<T>;
+export type ExcelRun = <T>(batch: (context: Excel.RequestContext) => Promise<T>) => Promise<T>;
 
 let ready: Promise<unknown> | null = null;
 
@@ -13,10 +13,10 @@ let ready: Promise<unknown> | null = null;
  * The real Excel.run, waiting once for Office.onReady first (the functions
  * runtime may call before Office has finished starting).
  * @throws Error when Office.js is not loaded (outside Excel).
- * @example await officeRun()(async (ctx) => { ctx.workbook.getSelectedRange().load('address'); await ctx.sync(); })
+ * @example await officeRun()(async (context) => { context.workbook.getSelectedRange().load('address'); await context.sync(); })
  */
 export function officeRun(): ExcelRun {
-  return async <T>(batch: (ctx: Excel.RequestContext) => Promise<T>): Promise<T> => {
+  return async <T>(batch: (context: Excel.RequestContext) => Promise<T>): Promise<T> => {
     if (typeof Excel === 'undefined' || typeof Excel.run !== 'function') {
       throw new Error('Remap: Excel is not available here; open the add-in inside Excel.');
     }

@@ -28,9 +28,9 @@ export function splitAddress(address: string): { sheet: string | null; cells: st
   return { sheet, cells: a.slice(bang + 1) };
 }
 
-function rangeOf(ctx: Excel.RequestContext, address: string): Excel.Range {
+function rangeOf(context: Excel.RequestContext, address: string): Excel.Range {
   const { sheet, cells } = splitAddress(address);
-  const ws = sheet === null ? ctx.workbook.worksheets.getActiveWorksheet() : ctx.workbook.worksheets.getItem(sheet);
+  const ws = sheet === null ? context.workbook.worksheets.getActiveWorksheet() : context.workbook.worksheets.getItem(sheet);
   return ws.getRange(cells);
 }
 
@@ -39,10 +39,10 @@ function rangeOf(ctx: Excel.RequestContext, address: string): Excel.Range {
  * @example await selectedAddress(run) // 'Sheet1!A1:A200'
  */
 export async function selectedAddress(run: ExcelRun): Promise<string> {
-  return run(async (ctx) => {
-    const r = ctx.workbook.getSelectedRange();
+  return run(async (context) => {
+    const r = context.workbook.getSelectedRange();
     r.load('address');
-    await ctx.sync();
+    await context.sync();
     return r.address;
   });
 }
@@ -56,25 +56,32 @@ export async function selectedAddress(run: ExcelRun): Promise<string> {
  * @example await readValues(run, 'Sheet1!A1:A3') // [['income'], [1200], [{ code: '#N/A' }]]
  */
 export async function readValues(run: ExcelRun, address: string, cellsPerRead = CELLS_PER_READ): Promise<unknown[][]> {
-  const shape = await run(async (ctx) => {
-    const r = rangeOf(ctx, address);
+  const shape = await run(async (context) => {
+    const r = rangeOf(context, address);
     r.load(['rowIndex', 'columnIndex', 'rowCount', 'columnCount']);
     const used = r.worksheet.getUsedRangeOrNullObject(true);
     used.load(['rowIndex', 'rowCount']);
     r.worksheet.load('name');
-    await ctx.sync();
+    await context.sync();
     const lastUsed = used.isNullObject ? -1 : used.rowIndex + used.rowCount - 1;
-    return { sheet: r.worksheet.name, row: r.rowIndex, col: r.columnIndex, rows: Math.max(0, Math.min(r.rowCount, lastUsed - r.rowIndex + 1)), cols: r.columnCount };
+    return {
+      sheet: r.worksheet.name,
+      row: r.rowIndex,
+      col: r.columnIndex,
+      rows: Math.max(0, Math.min(r.rowCount, lastUsed - r.rowIndex + 1)),
+      cols: r.columnCount,
+    };
   });
   const out: unknown[][] = [];
   const block = Math.max(1, Math.floor(cellsPerRead / Math.max(1, shape.cols)));
   for (let at = 0; at < shape.rows; at += block) {
     const n = Math.min(block, shape.rows - at);
-    const part = await run(async (ctx) => {
-      const r = ctx.workbook.worksheets.getItem(shape.sheet).getRangeByIndexes(shape.row + at, shape.col, n, shape.cols);
-      r.load(['values', 'valueTypes']);
-      await ctx.sync();
-      return r.values.map((row, i) => row.map((v, j) => (r.valueTypes[i][j] === 'Error' ? ({ code: String(v) } as ErrorCell) : v)));
+    const part = await run(async (context) => {
+      const r = context.workbook.worksheets.getItem(shape.sheet).getRangeByIndexes(shape.row + at, shape.col, n, shape.cols);
+      r.load('values, valueTypes');
+      await context.sync();
+      const types = r.valueTypes;
+      return r.values.map((row, i) => row.map((v, j) => (types[i][j] === 'Error' ? ({ code: String(v) } as ErrorCell) : v)));
     });
     for (const row of part) out.push(row);
   }
@@ -87,11 +94,11 @@ export async function readValues(run: ExcelRun, address: string, cellsPerRead = 
  * @example await writeFormula(run, 'Sheet1!F2', '=REMAP.FIT(A2:A100,B2:B100)') // 'Sheet1!F2'
  */
 export async function writeFormula(run: ExcelRun, address: string, formula: string): Promise<string> {
-  return run(async (ctx) => {
-    const cell = rangeOf(ctx, address).getCell(0, 0);
+  return run(async (context) => {
+    const cell = rangeOf(context, address).getCell(0, 0);
     cell.formulas = [[formula]];
     cell.load('address');
-    await ctx.sync();
+    await context.sync();
     return cell.address;
   });
 }
@@ -101,10 +108,10 @@ export async function writeFormula(run: ExcelRun, address: string, formula: stri
  * @example await readFormula(run, 'Sheet1!F2') // '=REMAP.FIT(A2:A100,B2:B100)'
  */
 export async function readFormula(run: ExcelRun, address: string): Promise<string> {
-  return run(async (ctx) => {
-    const cell = rangeOf(ctx, address).getCell(0, 0);
+  return run(async (context) => {
+    const cell = rangeOf(context, address).getCell(0, 0);
     cell.load('formulas');
-    await ctx.sync();
+    await context.sync();
     const f = cell.formulas[0][0];
     return typeof f === 'string' ? f : String(f ?? '');
   });
@@ -122,10 +129,10 @@ export async function reenterFormula(run: ExcelRun, address: string): Promise<st
 
 /** Selects a range (so the user sees the cell the pane talks about). */
 export async function selectRange(run: ExcelRun, address: string): Promise<void> {
-  await run(async (ctx) => {
-    const r = rangeOf(ctx, address);
+  await run(async (context) => {
+    const r = rangeOf(context, address);
     r.worksheet.activate();
     r.select();
-    await ctx.sync();
+    await context.sync();
   });
 }

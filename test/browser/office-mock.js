@@ -57,7 +57,13 @@
 
   /** The workbook's state: plain data, so a test can copy it to "reopen" the file. */
   function emptyState() {
-    return { sheets: [{ name: 'Sheet1', cells: {}, charts: [] }], active: 'Sheet1', selection: { sheet: 'Sheet1', r0: 0, c0: 0, r1: 0, c1: 0 }, parts: [], nextId: 1 };
+    return {
+      sheets: [{ name: 'Sheet1', cells: {}, charts: [] }],
+      active: 'Sheet1',
+      selection: { sheet: 'Sheet1', r0: 0, c0: 0, r1: 0, c1: 0 },
+      parts: [],
+      nextId: 1,
+    };
   }
 
   function createWorkbook(options) {
@@ -209,6 +215,14 @@
           x.cancel = () => inv.onCanceled && inv.onCanceled();
           while (args.length < meta.parameters.length) args.push(null);
           fn.apply(null, args.concat([inv]));
+        } else if (meta && meta.options && (meta.options.cancelable || meta.options.requiresAddress)) {
+          // A CancelableInvocation: the cell's address, and onCanceled, called when the formula is replaced.
+          const inv = { address, onCanceled: null };
+          x.cancel = () => inv.onCanceled && inv.onCanceled();
+          while (args.length < meta.parameters.length) args.push(null);
+          const v = fn.apply(null, args.concat([inv]));
+          if (v && typeof v.then === 'function') v.then(put, (e) => put(e));
+          else put(v);
         } else {
           const v = fn.apply(null, args);
           if (v && typeof v.then === 'function') v.then(put, (e) => put(e));
@@ -228,7 +242,9 @@
       const { sheet, cells } = splitAddress(address);
       const s = sheetNamed(sheet || state.active);
       const b = parseCells(cells);
-      rows.forEach((row, i) => row.forEach((v, j) => setCell(s, b.r0 + i, b.c0 + j, v && typeof v === 'object' && v.error ? { error: v.error } : { value: v })));
+      rows.forEach((row, i) =>
+        row.forEach((v, j) => setCell(s, b.r0 + i, b.c0 + j, v && typeof v === 'object' && v.error ? { error: v.error } : { value: v })),
+      );
     };
     mock.select = (address) => {
       const { sheet, cells } = splitAddress(address);
@@ -270,25 +286,29 @@
         // getBox() -> { sheet, r0, c0, r1, c1 } or null (null object)
         const obj = proxy(getBox, 'Range');
         obj._setters = {
-          values: (v) => ops.push(() => {
-            const b = getBox();
-            v.forEach((row, i) => row.forEach((val, j) => setCell(b.sheet, b.r0 + i, b.c0 + j, { value: val })));
-          }),
-          formulas: (v) => ops.push(() => {
-            const b = getBox();
-            v.forEach((row, i) =>
-              row.forEach((f, j) => {
-                const old = cell(b.sheet, b.r0 + i, b.c0 + j);
-                if (old && old.cancel) old.cancel();
-                if (typeof f === 'string' && f.startsWith('=')) {
-                  setCell(b.sheet, b.r0 + i, b.c0 + j, { formula: f, value: 0 });
-                  recalc(b.sheet, b.r0 + i, b.c0 + j);
-                } else setCell(b.sheet, b.r0 + i, b.c0 + j, { value: f });
-              }),
-            );
-          }),
+          values: (v) =>
+            ops.push(() => {
+              const b = getBox();
+              v.forEach((row, i) => row.forEach((val, j) => setCell(b.sheet, b.r0 + i, b.c0 + j, { value: val })));
+            }),
+          formulas: (v) =>
+            ops.push(() => {
+              const b = getBox();
+              v.forEach((row, i) =>
+                row.forEach((f, j) => {
+                  const old = cell(b.sheet, b.r0 + i, b.c0 + j);
+                  if (old && old.cancel) old.cancel();
+                  if (typeof f === 'string' && f.startsWith('=')) {
+                    setCell(b.sheet, b.r0 + i, b.c0 + j, { formula: f, value: 0 });
+                    recalc(b.sheet, b.r0 + i, b.c0 + j);
+                  } else setCell(b.sheet, b.r0 + i, b.c0 + j, { value: f });
+                }),
+              );
+            }),
         };
-        ['address', 'values', 'valueTypes', 'formulas', 'rowIndex', 'columnIndex', 'rowCount', 'columnCount', 'isNullObject'].forEach((n) => loadedGetter(obj, n));
+        ['address', 'values', 'valueTypes', 'formulas', 'rowIndex', 'columnIndex', 'rowCount', 'columnCount', 'isNullObject'].forEach((n) =>
+          loadedGetter(obj, n),
+        );
         obj._loaded.isNullObject = false;
         obj._compute = (name) => {
           const b = getBox();
@@ -316,15 +336,17 @@
           }
           return rows;
         };
-        obj.getCell = (i, j) => rangeProxy(() => {
-          const b = getBox();
-          return { sheet: b.sheet, r0: b.r0 + i, c0: b.c0 + j, r1: b.r0 + i, c1: b.c0 + j };
-        });
-        obj.select = () => ops.push(() => {
-          const b = getBox();
-          state.active = b.sheet.name;
-          state.selection = { sheet: b.sheet.name, r0: b.r0, c0: b.c0, r1: b.r1, c1: b.c1 };
-        });
+        obj.getCell = (i, j) =>
+          rangeProxy(() => {
+            const b = getBox();
+            return { sheet: b.sheet, r0: b.r0 + i, c0: b.c0 + j, r1: b.r0 + i, c1: b.c0 + j };
+          });
+        obj.select = () =>
+          ops.push(() => {
+            const b = getBox();
+            state.active = b.sheet.name;
+            state.selection = { sheet: b.sheet.name, r0: b.r0, c0: b.c0, r1: b.r1, c1: b.c1 };
+          });
         obj.worksheet = sheetProxy(() => getBox().sheet);
         return obj;
       }
@@ -345,9 +367,10 @@
           nullables.push(r);
           return r;
         };
-        obj.activate = () => ops.push(() => {
-          state.active = getSheet().name;
-        });
+        obj.activate = () =>
+          ops.push(() => {
+            state.active = getSheet().name;
+          });
         obj.charts = {
           add(type, range, seriesBy) {
             const chart = { type, seriesBy, title: { text: '' }, position: null };
@@ -359,7 +382,16 @@
                 });
               },
             };
-            Object.defineProperty(handle.title, 'text', { set(v) { ops.push(() => { chart.title.text = v; }); }, get() { return chart.title.text; } });
+            Object.defineProperty(handle.title, 'text', {
+              set(v) {
+                ops.push(() => {
+                  chart.title.text = v;
+                });
+              },
+              get() {
+                return chart.title.text;
+              },
+            });
             ops.push(() => {
               chart.source = range._compute('address');
               getSheet().charts.push(chart);
@@ -383,21 +415,35 @@
         };
         obj.getXml = () => {
           const result = { _v: undefined, _set: false };
-          Object.defineProperty(result, 'value', { get() { if (!result._set) throw new Error('PropertyNotLoaded: getXml() value read before sync()'); return result._v; } });
-          loads.push({ result, compute: () => { const p = getPart(); if (!p) throw new Error('ItemNotFound: custom XML part'); return p.xml; } });
+          Object.defineProperty(result, 'value', {
+            get() {
+              if (!result._set) throw new Error('PropertyNotLoaded: getXml() value read before sync()');
+              return result._v;
+            },
+          });
+          loads.push({
+            result,
+            compute: () => {
+              const p = getPart();
+              if (!p) throw new Error('ItemNotFound: custom XML part');
+              return p.xml;
+            },
+          });
           return result;
         };
-        obj.setXml = (xml) => ops.push(() => {
-          const p = getPart();
-          if (!p) throw new Error('ItemNotFound: custom XML part');
-          p.xml = xml;
-          p.ns = nsOf(xml);
-        });
-        obj.delete = () => ops.push(() => {
-          const p = getPart();
-          if (!p) throw new Error('ItemNotFound: custom XML part');
-          state.parts = state.parts.filter((q) => q !== p);
-        });
+        obj.setXml = (xml) =>
+          ops.push(() => {
+            const p = getPart();
+            if (!p) throw new Error('ItemNotFound: custom XML part');
+            p.xml = xml;
+            p.ns = nsOf(xml);
+          });
+        obj.delete = () =>
+          ops.push(() => {
+            const p = getPart();
+            if (!p) throw new Error('ItemNotFound: custom XML part');
+            state.parts = state.parts.filter((q) => q !== p);
+          });
         return obj;
       }
       function nsOf(xml) {
@@ -418,11 +464,21 @@
           return sheetProxy(() => made);
         },
         load: () => {
-          loads.push({ compute: () => state.sheets.map((s) => ({ name: s.name })), assign: (v) => { sheets._items = v; } });
+          loads.push({
+            compute: () => state.sheets.map((s) => ({ name: s.name })),
+            assign: (v) => {
+              sheets._items = v;
+            },
+          });
           return sheets;
         },
       };
-      Object.defineProperty(sheets, 'items', { get() { if (!sheets._items) throw new Error('PropertyNotLoaded: worksheets.items'); return sheets._items; } });
+      Object.defineProperty(sheets, 'items', {
+        get() {
+          if (!sheets._items) throw new Error('PropertyNotLoaded: worksheets.items');
+          return sheets._items;
+        },
+      });
 
       const parts = {
         add(xml) {
@@ -456,7 +512,12 @@
               return coll;
             },
           };
-          Object.defineProperty(coll, 'items', { get() { if (!coll._items) throw new Error('PropertyNotLoaded: customXmlParts items'); return coll._items; } });
+          Object.defineProperty(coll, 'items', {
+            get() {
+              if (!coll._items) throw new Error('PropertyNotLoaded: customXmlParts items');
+              return coll._items;
+            },
+          });
           return coll;
         },
       };
@@ -464,10 +525,11 @@
       ctx.workbook = {
         worksheets: sheets,
         customXmlParts: parts,
-        getSelectedRange: () => rangeProxy(() => {
-          const s = state.selection;
-          return { sheet: sheetNamed(s.sheet), r0: s.r0, c0: s.c0, r1: s.r1, c1: s.c1 };
-        }),
+        getSelectedRange: () =>
+          rangeProxy(() => {
+            const s = state.selection;
+            return { sheet: sheetNamed(s.sheet), r0: s.r0, c0: s.c0, r1: s.r1, c1: s.c1 };
+          }),
       };
       ctx.sync = async () => {
         mock.syncs++;
@@ -520,7 +582,15 @@
         mock.functions[String(id).toUpperCase()] = fn;
       },
       Error: SheetError,
-      ErrorCode: { invalidValue: '#VALUE!', invalidNumber: '#NUM!', notAvailable: '#N/A', divisionByZero: '#DIV/0!', nullReference: '#NULL!', invalidName: '#NAME?', invalidReference: '#REF!' },
+      ErrorCode: {
+        invalidValue: '#VALUE!',
+        invalidNumber: '#NUM!',
+        notAvailable: '#N/A',
+        divisionByZero: '#DIV/0!',
+        nullReference: '#NULL!',
+        invalidName: '#NAME?',
+        invalidReference: '#REF!',
+      },
     };
     target.Excel = { run: mock.run };
     target.Office = {

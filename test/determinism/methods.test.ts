@@ -11,7 +11,7 @@ import { fitMap, listMethods } from '../../src/engine/methods';
 import { points, sample } from '../../src/engine/points';
 import { Random } from '../../src/engine/stats/random';
 import * as F from '../../src/functions/functions';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { installCustomFunctionsStub } from '../helpers/custom-functions-stub';
 
 installCustomFunctionsStub();
@@ -22,12 +22,17 @@ const SETTINGS: Record<string, Record<string, string>> = {
   entropic: { seed: '11', max_iterations: '200' },
   'gradient-net': { seed: '11', steps: '3', hidden: '3', batch: '8', backend: 'cpu', time_budget: '30' },
 };
-const settingsText = (m: string) => Object.entries(SETTINGS[m] ?? {}).map(([k, v]) => `${k}=${v}`).join('; ');
+const settingsText = (m: string) =>
+  Object.entries(SETTINGS[m] ?? {})
+    .map(([k, v]) => `${k}=${v}`)
+    .join('; ');
 
 /** Seeded data: d columns, n rows, values with long binary expansions so that rounding differences would show. */
 function data(n: number, d: number, seed: number, ordinal: boolean): number[][] {
   const r = new Random(seed);
-  return Array.from({ length: n }, () => Array.from({ length: d }, (_, k) => (ordinal ? Math.floor(r.uniform() * 7) : r.uniform() * 3 + Math.sqrt(2) * k + r.uniform() / 3)));
+  return Array.from({ length: n }, () =>
+    Array.from({ length: d }, (_, k) => (ordinal ? Math.floor(r.uniform() * 7) : r.uniform() * 3 + Math.sqrt(2) * k + r.uniform() / 3)),
+  );
 }
 
 function sameBits(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
@@ -35,7 +40,6 @@ function sameBits(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
   for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) return false;
   return true;
 }
-
 
 const toCSV = (rows: number[][], cols: string[]) => [cols.join(','), ...rows.map((r) => r.map(String).join(','))].join('\n') + '\n';
 
@@ -65,14 +69,14 @@ describe.each(cases)('method %s is deterministic', (method) => {
     const engine = await fitMap(method, sample(src), sample(tgt), settings);
     const want = engine.apply(points(vals)).data;
     engine.dispose();
-    const cells1 = (await F.values(vals, src, tgt, method, undefined, undefined, settingsText(method) || undefined)) as number[][];
+    const cells1 = (await F.values(vals, src, tgt, method, settingsText(method) || undefined)) as number[][];
     forgetAll();
-    const cells2 = (await F.values(vals, src, tgt, method, undefined, undefined, settingsText(method) || undefined)) as number[][];
+    const cells2 = (await F.values(vals, src, tgt, method, settingsText(method) || undefined)) as number[][];
     expect(sameBits(cells1.flat(), want)).toBe(true);
     expect(sameBits(cells2.flat(), want)).toBe(true);
-    const c1 = (await F.cost(src, tgt, method, undefined, undefined, settingsText(method) || undefined)) as number;
+    const c1 = (await F.cost(src, tgt, method, settingsText(method) || undefined)) as number;
     forgetAll();
-    const c2 = (await F.cost(src, tgt, method, undefined, undefined, settingsText(method) || undefined)) as number;
+    const c2 = (await F.cost(src, tgt, method, settingsText(method) || undefined)) as number;
     expect(Object.is(c1, c2)).toBe(true);
   });
 
@@ -85,11 +89,11 @@ describe.each(cases)('method %s is deterministic', (method) => {
     const applied = await cli(['apply', '--model', 'm.json', '--input', 'x.csv'], files);
     expect(applied.code).toBe(0);
     const fromCli = parseCSV(applied.out).slice(1).flat().map(Number);
-    const cells = (await F.values(vals, src, tgt, method, undefined, undefined, st || undefined)) as number[][];
+    const cells = (await F.values(vals, src, tgt, method, st || undefined)) as number[][];
     expect(sameBits(fromCli, cells.flat())).toBe(true);
     const cost = await cli(['cost', '--source', 's.csv', '--target', 't.csv', '--method', method, ...(st ? ['--settings', st] : [])], files);
     expect(cost.code).toBe(0);
-    const cellCost = (await F.cost(src, tgt, method, undefined, undefined, st || undefined)) as number;
+    const cellCost = (await F.cost(src, tgt, method, st || undefined)) as number;
     expect(Object.is(JSON.parse(cost.out).w2_squared, cellCost)).toBe(true);
   });
 });

@@ -1,6 +1,6 @@
 import * as ss from 'simple-statistics';
 import * as F from '../../src/functions/functions';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { installCustomFunctionsStub, StubSheetError } from '../helpers/custom-functions-stub';
 
 installCustomFunctionsStub();
@@ -27,7 +27,14 @@ describe('REMAP.VALUES', () => {
   });
 
   test('keeps the shape of values; blanks stay blank; text gives #VALUE! in place', () => {
-    const out = F.values([[1, null], ['x', 3]], col([1, 2, 3]), col([10, 20, 30]));
+    const out = F.values(
+      [
+        [1, null],
+        ['x', 3],
+      ],
+      col([1, 2, 3]),
+      col([10, 20, 30]),
+    );
     expect(out[0][0]).toBe(10);
     expect(out[0][1]).toBe('');
     expect(out[1][0]).toBeInstanceOf(StubSheetError);
@@ -37,7 +44,14 @@ describe('REMAP.VALUES', () => {
 
   test('several columns default to the linear map, which moves the source mean onto the target mean', () => {
     // Source: the Gaussian map T(x) = m2 + A (x - m1) sends m1 to m2 (Knott & Smith 1984)
-    const src = [[0, 0], [1, 0], [0, 1], [1, 1], [0.5, 0.2], [0.2, 0.7]];
+    const src = [
+      [0, 0],
+      [1, 0],
+      [0, 1],
+      [1, 1],
+      [0.5, 0.2],
+      [0.2, 0.7],
+    ];
     const tgt = src.map(([a, b]) => [2 * a + 5, 3 * b - 1]);
     const m1 = [ss.mean(src.map((r) => r[0])), ss.mean(src.map((r) => r[1]))];
     const out = F.values([m1], src, tgt);
@@ -47,30 +61,40 @@ describe('REMAP.VALUES', () => {
 
   test('weights: a weight of 2 counts as the row twice (step mode)', () => {
     // Source: frequency weights (common practice)
-    const a = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 5, 7, 9]), 'step', col([1, 1, 1]), col([2, 1, 1, 0]));
+    const a = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 5, 7, 9]), 'step', undefined, col([1, 1, 1]), col([2, 1, 1, 0]));
     const b = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 1, 5, 7]), 'step');
     expect(a).toEqual(b);
   });
 
   test('bad input becomes #VALUE! with a message that says what to fix', () => {
-    const e1 = sheetError(() => F.values(col([1]), [[1, 2], [3, 4], [5, 6]], col([1, 2, 3])));
+    const e1 = sheetError(() =>
+      F.values(
+        col([1]),
+        [
+          [1, 2],
+          [3, 4],
+          [5, 6],
+        ],
+        col([1, 2, 3]),
+      ),
+    );
     expect(e1.code).toBe('#VALUE!');
     expect(e1.message).toMatch(/source has 2 columns and the target 1/);
     const e2 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'wibble'));
     expect(e2.message).toMatch(/Unknown method "wibble"; choose one of quantile, step, ordinal, linear/);
-    const e3 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', col([1, -1, 1])));
+    const e3 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', undefined, col([1, -1, 1])));
     expect(e3.message).toMatch(/negative/);
-    const e4 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', col([0, 0, 0])));
+    const e4 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', undefined, col([0, 0, 0])));
     expect(e4.message).toMatch(/all source weights are zero/);
     const e5 = sheetError(() => F.values(col([1]), col([1]), col([1, 2, 3])));
     expect(e5.message).toMatch(/at least 2/);
-    const e6 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', undefined, undefined, 'colour=red'));
+    const e6 = sheetError(() => F.values(col([1]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', 'colour=red'));
     expect(e6.message).toMatch(/Unknown setting "colour" for method quantile. Known settings: tails/);
   });
 
   test('tails=linear continues the end slope beyond the source range; the default clamps', () => {
     const clamp = F.values(col([4]), col([1, 2, 3]), col([10, 20, 30]));
-    const linear = F.values(col([4]), col([1, 2, 3]), col([10, 20, 30]), 'quantile', undefined, undefined, 'tails=linear');
+    const linear = F.values(col([4]), col([1, 2, 3]), col([10, 20, 30]), 'quantile', 'tails=linear');
     expect(clamp).toEqual([[30]]);
     expect(linear[0][0]).toBeCloseTo(40, 12);
   });
@@ -91,7 +115,20 @@ describe('REMAP.COST and REMAP.GAUSSCOST', () => {
 
   test('GAUSSCOST of N(0, I) and N(0, diag(4, 9)) is 5', () => {
     // Source: Bures formula, commuting case: tr(S1 + S2 - 2 (S1^1/2 S2 S1^1/2)^1/2) = (1 + 4 - 4) + (1 + 9 - 6) = 5
-    expect(F.gausscost([[0], [0]], [[1, 0], [0, 1]], [[0], [0]], [[4, 0], [0, 9]])).toBeCloseTo(5, 12);
+    expect(
+      F.gausscost(
+        [[0], [0]],
+        [
+          [1, 0],
+          [0, 1],
+        ],
+        [[0], [0]],
+        [
+          [4, 0],
+          [0, 9],
+        ],
+      ),
+    ).toBeCloseTo(5, 12);
   });
 
   test('GAUSSCOST refuses a blank in a covariance', () => {
@@ -183,7 +220,7 @@ describe('REMAP.PAIRS and REMAP.LOAD', () => {
     expect(sheetError(() => F.pairs(col([1, 2, 3]), col([1, 2]))).message).toMatch(/entropic/);
   });
 
-  test('LOAD restores SAVE\'s JSON: the same JSON gives the same handle and identical results', async () => {
+  test("LOAD restores SAVE's JSON: the same JSON gives the same handle and identical results", async () => {
     const h = await F.fit(col([1, 2, 3, 4]), col([2, 4, 8, 16]));
     const json = (await F.save(h)) as string;
     forgetAll();

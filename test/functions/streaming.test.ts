@@ -2,7 +2,7 @@
 jest.mock('../../src/engine/gradient-net/method', () => ({ gradientNetMethod: require('../helpers/slow-method').slowMethod('gradient-net') }));
 import { MAX_CELL_TEXT, MAX_RESULT_BYTES } from '../../src/functions/calls';
 import * as F from '../../src/functions/functions';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll, watchFits } from '../../src/fits';
 import { installCustomFunctionsStub, StubSheetError } from '../helpers/custom-functions-stub';
 
 installCustomFunctionsStub();
@@ -16,7 +16,6 @@ async function until(done: () => boolean, limitMs = 30000): Promise<void> {
   const t0 = Date.now();
   while (!done() && Date.now() - t0 < limitMs) await tick(20);
 }
-
 
 /** A fake StreamingInvocation recording every result. */
 function invocation(address = 'Sheet1!F2') {
@@ -57,7 +56,7 @@ describe('REMAP.FIT streams', () => {
   test('Excel cancelling the cell (inputs changed, cell cleared) aborts the fit and sets nothing more', async () => {
     const { inv, results, cancel } = invocation();
     let lastStep = 0;
-    const stopWatching = (await import('../../src/functions/calls')).watchFits((_h, p) => {
+    const stopWatching = watchFits((_h, p) => {
       lastStep = p.step;
     });
     F.fit(src, tgt, 'gradient-net', 'steps=401', undefined, undefined, inv);
@@ -80,7 +79,15 @@ describe('REMAP.FIT streams', () => {
   test('a method without its own time budget is stopped at time_budget with a clear #N/A', () => {
     const rows = Array.from({ length: 400 }, (_, i) => [Math.sin(i), Math.cos(3 * i)]);
     const { inv, results } = invocation();
-    F.fit(rows, rows.map(([a, b]) => [2 * a, b + 1]), 'entropic', 'time_budget=0.001; tolerance=1e-12', undefined, undefined, inv);
+    F.fit(
+      rows,
+      rows.map(([a, b]) => [2 * a, b + 1]),
+      'entropic',
+      'time_budget=0.001; tolerance=1e-12',
+      undefined,
+      undefined,
+      inv,
+    );
     expect(results).toHaveLength(1);
     const e = results[0] as StubSheetError;
     expect(e).toBeInstanceOf(StubSheetError);
@@ -120,7 +127,9 @@ describe('results within Excel limits', () => {
       err = e as StubSheetError;
     }
     expect(err?.code).toBe('#VALUE!');
-    expect(err?.message).toMatch(/more than the 5 MB Excel accepts from one function. Apply the map to fewer rows at a time: split the range into blocks of at most [\d,]+ rows/);
+    expect(err?.message).toMatch(
+      /more than the 5 MB Excel accepts from one function. Apply the map to fewer rows at a time: split the range into blocks of at most [\d,]+ rows/,
+    );
     const blocks = Number(/at most ([\d,]+) rows/.exec(String(err?.message))?.[1].replace(/,/g, ''));
     const ok = (await F.apply(h, vals.slice(0, blocks))) as number[][];
     expect(JSON.stringify(ok).length).toBeLessThanOrEqual(MAX_RESULT_BYTES);
@@ -144,12 +153,66 @@ describe('results within Excel limits', () => {
     const s = Array.from({ length: 40 }, (_, i) => [Math.sin(i) + i / 40, Math.cos(2 * i)]);
     const t = s.map(([a, b]) => [3 * a - 1, a + 2 * b]);
     const h = (await F.fit(s, t, 'linear')) as unknown as string;
-    const probe = [[0.1, 0.2], [-1.5, 3], [7, -2]];
+    const probe = [
+      [0.1, 0.2],
+      [-1.5, 3],
+      [7, -2],
+    ];
     const direct = (await F.apply(h, probe)) as number[][];
     const json = (await F.save(h)) as unknown as string;
     forgetAll();
     const loaded = F.load(json);
     const again = (await F.apply(loaded, probe)) as number[][];
     for (let i = 0; i < probe.length; i++) for (let k = 0; k < 2; k++) expect(Object.is(again[i][k], direct[i][k])).toBe(true);
+  });
+});
+
+/** A fake CancelableInvocation: Excel sets nothing on it but calls onCanceled. */
+function cancelable() {
+  const inv = { onCanceled: undefined as undefined | (() => void) };
+  return { inv: inv as unknown as CustomFunctions.CancelableInvocation, cancel: () => inv.onCanceled?.() };
+}
+
+describe('REMAP.VALUES, REMAP.COST and REMAP.PAIRS are cancelable', () => {
+  test.each(['values', 'cost'] as const)('Excel cancelling a REMAP.%s cell stops its background fit', async (which) => {
+    const { inv, cancel } = cancelable();
+    let lastStep = 0;
+    const stopWatching = watchFits((_h, p) => {
+      lastStep = p.step;
+    });
+    const run =
+      which === 'values'
+        ? (F.values(col([2, 3]), src, tgt, 'gradient-net', 'steps=402', undefined, undefined, inv) as unknown as Promise<unknown>)
+        : (F.cost(src, tgt, 'gradient-net', 'steps=402', undefined, undefined, inv) as unknown as Promise<unknown>);
+    await until(() => lastStep > 0);
+    cancel();
+    const stepAtCancel = lastStep;
+    // Source: design choice (a cancelled call ends as #N/A; Excel discards it)
+    await expect(run).rejects.toMatchObject({ code: '#N/A' });
+    await tick(100);
+    stopWatching();
+    expect(lastStep).toBeLessThanOrEqual(stepAtCancel + 1); // stopped at its next check of the signal, far before step 402
+  });
+
+  test('without an invocation (the headless demo, scripts) REMAP.VALUES still returns its values', async () => {
+    // Source: quantile matching (the stand-in fits it) sends the smallest and largest source values to the smallest and largest target values
+    const out = await (F.values(col([1, 8]), src, tgt, 'gradient-net', 'steps=3') as unknown as Promise<number[][]>);
+    expect(out).toEqual([[10], [50]]);
+  });
+
+  test('a cell that joined a fit another cell started, and saw it cancelled there, fits again itself', async () => {
+    const first = cancelable();
+    let lastStep = 0;
+    const stopWatching = watchFits((_h, p) => {
+      lastStep = p.step;
+    });
+    const a = F.values(col([1]), src, tgt, 'gradient-net', 'steps=20', undefined, undefined, first.inv) as unknown as Promise<unknown>;
+    const b = F.values(col([8]), src, tgt, 'gradient-net', 'steps=20') as unknown as Promise<number[][]>;
+    await until(() => lastStep > 0);
+    first.cancel();
+    await expect(a).rejects.toMatchObject({ code: '#N/A' });
+    // Source: the quantile map sends the largest source value to the largest target value (50)
+    await expect(b).resolves.toEqual([[50]]);
+    stopWatching();
   });
 });

@@ -1,6 +1,8 @@
 /* Shared generators and checks for the property-based tests in test/fuzz (fast-check 4).
  * Sizes are bounded so that no property can run long; every property also stops
- * after its time limit (fast-check's interruptAfterTimeLimit). */
+ * after its time limit (fast-check's interruptAfterTimeLimit), and then fails
+ * unless it ran at least its floor of cases (assertProperty): a slow machine
+ * must not pass a property it barely exercised. */
 import fc from 'fast-check';
 
 /** The seed every property starts from; FUZZ_SEED=<n> explores other cases. */
@@ -11,7 +13,33 @@ export const RUNS_FACTOR = Number(process.env.FUZZ_RUNS ?? 1);
 
 /** Options for fc.assert: fixed seed, run count, time limit. */
 export function options(numRuns: number, timeLimitMs: number): fc.Parameters<unknown> {
-  return { seed: FUZZ_SEED, numRuns: Math.max(1, Math.round(numRuns * RUNS_FACTOR)), interruptAfterTimeLimit: timeLimitMs * Math.max(1, RUNS_FACTOR), endOnFailure: true };
+  return {
+    seed: FUZZ_SEED,
+    numRuns: Math.max(1, Math.round(numRuns * RUNS_FACTOR)),
+    interruptAfterTimeLimit: timeLimitMs * Math.max(1, RUNS_FACTOR),
+    endOnFailure: true,
+  };
+}
+
+/**
+ * Runs a property like fc.assert with `options(numRuns, timeLimitMs)`, and
+ * fails when the time limit stopped it before `minRuns` cases ran (default a
+ * quarter of the scaled run count), saying how many ran. A counterexample is
+ * reported as fc.assert reports it (no shrinking: endOnFailure).
+ */
+export async function assertProperty<T>(
+  property: fc.IAsyncProperty<T> | fc.IProperty<T>,
+  numRuns: number,
+  timeLimitMs: number,
+  minRuns?: number,
+): Promise<void> {
+  const opts = options(numRuns, timeLimitMs) as fc.Parameters<T>;
+  const out = await fc.check(property as fc.IAsyncProperty<T>, opts);
+  if (out.failed) throw new Error(await fc.asyncDefaultReportMessage(out));
+  const floor = minRuns ?? Math.max(1, Math.ceil((opts.numRuns ?? numRuns) / 4));
+  if (out.numRuns < floor) {
+    throw new Error(`The property ran only ${out.numRuns} of ${opts.numRuns} cases before its time limit of ${opts.interruptAfterTimeLimit} ms (floor ${floor}); the machine is too busy or the property too slow. Rerun, or raise the time limit.`);
+  }
 }
 
 /** A finite number of any size from 1e-300 to 1e300 (and 0, -0, whole numbers). */
@@ -19,7 +47,9 @@ export const anyNumber: fc.Arbitrary<number> = fc.oneof(
   { arbitrary: fc.integer({ min: -20, max: 20 }), weight: 4 },
   { arbitrary: fc.double({ min: -1000, max: 1000, noNaN: true }), weight: 3 },
   {
-    arbitrary: fc.tuple(fc.double({ min: 1, max: 10, noNaN: true }), fc.integer({ min: -300, max: 299 }), fc.boolean()).map(([m, e, neg]) => (neg ? -1 : 1) * m * 10 ** e),
+    arbitrary: fc
+      .tuple(fc.double({ min: 1, max: 10, noNaN: true }), fc.integer({ min: -300, max: 299 }), fc.boolean())
+      .map(([m, e, neg]) => (neg ? -1 : 1) * m * 10 ** e),
     weight: 3,
   },
   { arbitrary: fc.constantFrom(0, -0, 1e-300, -1e-300, 1e300, -1e300, 5e-324, Number.MAX_SAFE_INTEGER), weight: 1 },
@@ -100,9 +130,14 @@ export function range(d: number, opts: RangeOptions = {}): fc.Arbitrary<unknown[
 
 /** A clean numeric range (numbers only, n rows, d columns), for properties that need fits to succeed. */
 export function cleanRange(d: number, minRows: number, maxRows: number): fc.Arbitrary<number[][]> {
-  return fc.integer({ min: -6, max: 6 }).chain((exp) =>
-    fc.array(fc.array(fc.oneof(scaledNumber(exp), fc.integer({ min: -9, max: 9 })), { minLength: d, maxLength: d }), { minLength: minRows, maxLength: maxRows }),
-  );
+  return fc
+    .integer({ min: -6, max: 6 })
+    .chain((exp) =>
+      fc.array(fc.array(fc.oneof(scaledNumber(exp), fc.integer({ min: -9, max: 9 })), { minLength: d, maxLength: d }), {
+        minLength: minRows,
+        maxLength: maxRows,
+      }),
+    );
 }
 
 /** A weights column for `rows` rows: zeros, negatives, blanks, text, huge and tiny weights, or the wrong height. */
@@ -122,7 +157,20 @@ export function weights(rows: number): fc.Arbitrary<unknown> {
 
 /** Odd method arguments besides the registered names. */
 export const oddMethod: fc.Arbitrary<unknown> = fc.oneof(
-  fc.constantFrom('', 'auto', 'AUTO', ' Quantile ', 'LINEAR', '__proto__', 'constructor', 'toString', 'hasOwnProperty', 'quantile;', 'gradient net', 'entropic\n'),
+  fc.constantFrom(
+    '',
+    'auto',
+    'AUTO',
+    ' Quantile ',
+    'LINEAR',
+    '__proto__',
+    'constructor',
+    'toString',
+    'hasOwnProperty',
+    'quantile;',
+    'gradient net',
+    'entropic\n',
+  ),
   fc.string({ maxLength: 8 }),
   fc.constantFrom(5, true, null, undefined, NaN),
   errorCell,
@@ -155,14 +203,17 @@ export const oddSettings: fc.Arbitrary<unknown> = fc.oneof(
     'constructor=1',
     'prototype=x',
     'toString=1',
-    'eps=0.05',
+    'smoothing=0.05',
     'max_iterations=3',
     'time_budget=1',
     'a'.repeat(200) + '=1',
   ),
   fc.string({ maxLength: 12 }),
   fc.constant([['tails', 'linear']]),
-  fc.constant([['ridge', 0.5], ['', '']]),
+  fc.constant([
+    ['ridge', 0.5],
+    ['', ''],
+  ]),
   fc.constant([['__proto__', 1]]),
   fc.constant([[1, 2]]),
   fc.constant([['a', 'b', 'c']]),
@@ -200,9 +251,11 @@ export function sameDeep(a: unknown, b: unknown): boolean {
  * Does a rejection say what to do? The leading "where" part ("fit (quantile): ",
  * "REMAP.VALUES: ") is dropped first so that the word "fit" in it does not count.
  */
-export const ACTION = /\b(give|select|remove|use|set|add|check|fill|replace|choose|rescale|pick|fit|clear|leave|split|apply|recalculate|load|save|close|write|sort|keep|make|try|reduce|lower|raise|increase|drop)\b/i;
+export const ACTION =
+  /\b(give|select|remove|use|set|add|check|fill|replace|choose|rescale|pick|fit|clear|leave|split|apply|recalculate|load|save|close|write|sort|keep|make|try|reduce|lower|raise|increase|drop)\b/i;
 /** Messages that list the allowed choices say what to do by listing them. */
-export const LISTS_CHOICES = /known (methods|settings)|must be one of|the commands are|its options are|must be (text|true|a finite|a whole|at least|at most|greater|between)/i;
+export const LISTS_CHOICES =
+  /known (methods|settings)|must be one of|the commands are|its options are|must be (text|true|a finite|a whole|at least|at most|greater|between)/i;
 
 /** States what a value must be ("weights must be zero or positive"): a weaker way of saying what to do. */
 export const STATES_REQUIREMENT = /\b(must|needs?|takes|only)\b/i;
@@ -220,5 +273,8 @@ export function saysWhatToDo(message: string): 'verb' | 'requirement' | false {
 
 /** Distinct messages (with numbers and quoted parts blanked) seen failing the strict verb check, for the report. */
 export function shape(message: string): string {
-  return message.replace(/"[^"]*"/g, '"…"').replace(/-?\d[\d.e+-]*/g, 'N').slice(0, 160);
+  return message
+    .replace(/"[^"]*"/g, '"…"')
+    .replace(/-?\d[\d.e+-]*/g, 'N')
+    .slice(0, 160);
 }

@@ -10,7 +10,7 @@
 import fc from 'fast-check';
 import { parseCSV } from '../../src/cli/csv';
 import { listMethods } from '../../src/engine/methods';
-import { anyNumber, options, saysWhatToDo, scaledNumber, shape } from './arbitraries';
+import { anyNumber, assertProperty, saysWhatToDo, scaledNumber, shape } from './arbitraries';
 import { runCli as run } from '../helpers/run-cli';
 
 const SLOW = new Set(['entropic', 'gradient-net']);
@@ -119,7 +119,7 @@ describe('remap command line under hostile input', () => {
         x: csv(o.cols),
       }),
     );
-    await fc.assert(
+    await assertProperty(
       fc.asyncProperty(arb, async ({ o, s, t, x }) => {
         cases++;
         const files: Record<string, string> = { 's.csv': s, 't.csv': t, 'x.csv': x };
@@ -156,7 +156,7 @@ describe('remap command line under hostile input', () => {
           }
         }
       }),
-      options(1000, 15_000),
+      1000, 15_000,
     );
   });
 
@@ -167,7 +167,7 @@ describe('remap command line under hostile input', () => {
         fc.array(fc.array(scaledNumber(o.exp).map((v) => v * scale), { minLength: o.d, maxLength: o.d }), { minLength: min, maxLength: max }).map((rs) => [cols.join(','), ...rs.map((r) => r.join(','))].join('\n') + '\n');
       return fc.record({ o: fc.constant(o), s: rows(5, 12, 1), t: rows(5, 12, 3), x: rows(0, 6, o.far ? 1e6 : 1) });
     });
-    await fc.assert(
+    await assertProperty(
       fc.asyncProperty(arb, async ({ o, s, t, x }) => {
         cases++;
         // pairs maps its own source rows only, on equal sizes: give it the source as target and input
@@ -181,7 +181,7 @@ describe('remap command line under hostile input', () => {
         judge(await run(['invert', '--model', 'm.json', '--input', 'x.csv', '--out', 'y.csv'], files), 'invert', files);
         judge(await run(['report', '--model', 'm.json'], files), 'report', files);
       }),
-      options(300, 12_000),
+      300, 12_000,
     );
   });
 });

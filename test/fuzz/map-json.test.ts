@@ -11,11 +11,11 @@ import fc from 'fast-check';
 import { isRemapError } from '../../src/engine/errors';
 import { parseMapJSON } from '../../src/engine/map-json';
 import type { Mapped, TransportMap } from '../../src/engine/map';
-import { readValues, writeValues } from '../../src/functions/coerce';
+import { readValues, writeValues } from '../../src/input/coerce';
 import { fitMap, listMethods, restoreMap } from '../../src/engine/methods';
 import { sample, points } from '../../src/engine/points';
-import { reportTable } from '../../src/functions/report';
-import { options } from './arbitraries';
+import { reportTable } from '../../src/fits/report-table';
+import { assertProperty } from './arbitraries';
 
 const SMALL: Record<string, Record<string, unknown>> = { entropic: { max_iterations: 50 }, 'gradient-net': { steps: 2, hidden: 2, batch: 0, backend: 'cpu' } };
 const PROTO_KEYS = Object.getOwnPropertyNames(Object.prototype).sort().join(',');
@@ -24,7 +24,12 @@ let cases = 0;
 const tally = new Map<string, number>();
 afterAll(() => {
   // eslint-disable-next-line no-console
-  console.log(`fuzz (map JSON): ${cases} mutated maps; ${[...tally.entries()].sort().map(([k, v]) => `${k}: ${v}`).join('; ')}`);
+  console.log(
+    `fuzz (map JSON): ${cases} mutated maps; ${[...tally.entries()]
+      .sort()
+      .map(([k, v]) => `${k}: ${v}`)
+      .join('; ')}`,
+  );
 });
 
 /** One valid saved map per registered method and column count (fitted once, on small seeded-free data). */
@@ -34,8 +39,12 @@ beforeAll(async () => {
     for (const d of [1, 2]) {
       if (spec.name === 'ordinal' && d === 2) continue;
       const n = 12;
-      const src = Array.from({ length: n }, (_, i) => Array.from({ length: d }, (_, k) => ((i * (3 + k)) % n) + k * 0.5 + (spec.name === 'ordinal' ? 0 : i * 0.01)));
-      const tgt = Array.from({ length: n }, (_, i) => Array.from({ length: d }, (_, k) => 2 * (((i * (5 + k)) % n) + (spec.name === 'ordinal' ? 0 : 0.3 * k)) + 1));
+      const src = Array.from({ length: n }, (_, i) =>
+        Array.from({ length: d }, (_, k) => ((i * (3 + k)) % n) + k * 0.5 + (spec.name === 'ordinal' ? 0 : i * 0.01)),
+      );
+      const tgt = Array.from({ length: n }, (_, i) =>
+        Array.from({ length: d }, (_, k) => 2 * (((i * (5 + k)) % n) + (spec.name === 'ordinal' ? 0 : 0.3 * k)) + 1),
+      );
       const map = await fitMap(spec.name, sample(src), sample(tgt), SMALL[spec.name] ?? {});
       saved.push({ method: spec.name, d, text: JSON.stringify(map.toJSON()) });
       map.dispose();
@@ -73,7 +82,32 @@ function setAt(root: Json, path: (string | number)[], value: Json | undefined): 
 /** Replacement values: wrong types, huge and tiny numbers, long arrays, hostile objects. */
 const replacement: fc.Arbitrary<Json | undefined> = fc.oneof(
   fc.constant(undefined),
-  fc.constantFrom<Json>(null, true, false, 0, -1, 0.5, 1e300, -1e300, 1e-300, 2 ** 31, 2 ** 53, 1.5, '', 'x', 'quantile', 'linear', [], {}, [1], [1, 2, 3], [[1]], { a: 1 }, [null], ['1']),
+  fc.constantFrom<Json>(
+    null,
+    true,
+    false,
+    0,
+    -1,
+    0.5,
+    1e300,
+    -1e300,
+    1e-300,
+    2 ** 31,
+    2 ** 53,
+    1.5,
+    '',
+    'x',
+    'quantile',
+    'linear',
+    [],
+    {},
+    [1],
+    [1, 2, 3],
+    [[1]],
+    { a: 1 },
+    [null],
+    ['1'],
+  ),
   fc.double({ noNaN: true, noDefaultInfinity: true }),
   fc.integer({ min: -3, max: 100 }),
   fc.array(fc.double({ min: -1e6, max: 1e6, noNaN: true }), { maxLength: 30 }),
@@ -129,7 +163,12 @@ function mutate(text: string, m: Mutation): string {
       break;
     case 'scale':
       if (typeof here === 'number') setAt(root, path, here * m.factor);
-      else if (Array.isArray(here)) setAt(root, path, here.map((x) => (typeof x === 'number' ? x * m.factor : x)));
+      else if (Array.isArray(here))
+        setAt(
+          root,
+          path,
+          here.map((x) => (typeof x === 'number' ? x * m.factor : x)),
+        );
       break;
     default:
       setAt(root, path, m.value);
@@ -160,15 +199,21 @@ function largest(text: string): number {
  */
 function checkFinite(mapped: Mapped, what: string, text: string): void {
   if (mapped.data.every((v) => Number.isFinite(v))) return;
-  if (largest(text) <= 1e150) throw new Error(`${what}: a loaded map gave ${mapped.data.find((v) => !Number.isFinite(v))} from parameters no larger than 1e150`);
-  const layout = readValues(Array.from({ length: mapped.n }, (_, i) => Array.from({ length: mapped.d }, () => i)), mapped.d, 'fuzz').layout;
-  for (const row of writeValues(mapped, layout)) for (const c of row) if (typeof c === 'number' && !Number.isFinite(c)) throw new Error(`${what}: a cell would show ${c}`);
+  if (largest(text) <= 1e150)
+    throw new Error(`${what}: a loaded map gave ${mapped.data.find((v) => !Number.isFinite(v))} from parameters no ` + `larger than 1e150`);
+  const layout = readValues(
+    Array.from({ length: mapped.n }, (_, i) => Array.from({ length: mapped.d }, () => i)),
+    mapped.d,
+    'fuzz',
+  ).layout;
+  for (const row of writeValues(mapped, layout))
+    for (const c of row) if (typeof c === 'number' && !Number.isFinite(c)) throw new Error(`${what}: a cell would show ${c}`);
   tally.set('overflow shown as #NUM!', (tally.get('overflow shown as #NUM!') ?? 0) + 1);
 }
 
 describe('saved maps under mutation', () => {
   test('every mutated map JSON is refused with a RemapError or loads to a map whose outputs are finite', async () => {
-    await fc.assert(
+    await assertProperty(
       fc.asyncProperty(fc.nat(), mutation, async (which, m) => {
         cases++;
         const base = saved[which % saved.length];
@@ -176,7 +221,8 @@ describe('saved maps under mutation', () => {
         const json = step('parseMapJSON', () => parseMapJSON(text));
         if (!json) return void tally.set('refused by parseMapJSON', (tally.get('refused by parseMapJSON') ?? 0) + 1);
         const map: TransportMap | undefined = step('fromJSON', () => restoreMap(json));
-        if (Object.getOwnPropertyNames(Object.prototype).sort().join(',') !== PROTO_KEYS || ({} as Record<string, unknown>).polluted !== undefined) throw new Error('Object.prototype changed');
+        if (Object.getOwnPropertyNames(Object.prototype).sort().join(',') !== PROTO_KEYS || ({} as Record<string, unknown>).polluted !== undefined)
+          throw new Error('Object.prototype changed');
         if (!map) return void tally.set('refused by fromJSON', (tally.get('refused by fromJSON') ?? 0) + 1);
         tally.set('loaded', (tally.get('loaded') ?? 0) + 1);
         try {
@@ -200,7 +246,7 @@ describe('saved maps under mutation', () => {
           map.dispose();
         }
       }),
-      options(3000, 15_000),
+      3000, 15_000,
     );
   });
 });

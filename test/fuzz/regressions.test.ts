@@ -8,10 +8,10 @@ import { column, sample } from '../../src/engine/points';
 import { hazenGrid } from '../../src/engine/quantile/hazen-grid';
 import { buildKnots } from '../../src/engine/quantile/knots';
 import { weightedCdfSorted } from '../../src/engine/stats/weighted-cdf';
-import { CellError } from '../../src/functions/cells';
-import { readValues, writeValues } from '../../src/functions/coerce';
+import { CellError } from '../../src/input/cells';
+import { readValues, writeValues } from '../../src/input/coerce';
 import * as F from '../../src/functions/functions';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { installCustomFunctionsStub, StubSheetError } from '../helpers/custom-functions-stub';
 import { runCli as cli } from '../helpers/run-cli';
 
@@ -39,7 +39,7 @@ describe('quantile/hazen-grid.ts and quantile/knots.ts: weights adding up beyond
 
   test('a quantile fit with such weights finishes with finite results (REMAP.VALUES)', () => {
     const col = (xs: number[]) => xs.map((x) => [x]);
-    const out = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', col([1e308, 5e-324, 1])) as unknown[][];
+    const out = F.values(col([1, 2, 3]), col([1, 2, 3]), col([1, 2, 3]), 'quantile', undefined, col([1e308, 5e-324, 1])) as unknown[][];
     for (const [v] of out) expect(Number.isFinite(v as number) || v instanceof StubSheetError).toBe(true);
   });
 
@@ -63,10 +63,10 @@ describe('quantile/fit-columns.ts: a cost that overflows', () => {
   });
 });
 
-describe('functions/coerce.ts writeValues: a mapped value that is not finite', () => {
+describe('input/coerce.ts writeValues: a mapped value that is not finite', () => {
   test('tails=linear far outside the fitted range gives #NUM! in that cell (was Infinity in the cell)', () => {
     const col = (xs: number[]) => xs.map((x) => [x]);
-    const out = F.values(col([1e300, 0]), col([0, 1e-300]), col([0, 1]), 'quantile', undefined, undefined, 'tails=linear') as unknown[][];
+    const out = F.values(col([1e300, 0]), col([0, 1e-300]), col([0, 1]), 'quantile', 'tails=linear') as unknown[][];
     expect(out[0][0]).toBeInstanceOf(StubSheetError);
     expect((out[0][0] as StubSheetError).code).toBe('#NUM!');
     expect((out[0][0] as StubSheetError).message).toMatch(/rescale/i);
@@ -115,7 +115,8 @@ describe('cli/main.ts', () => {
 
 describe('linear/fit.ts with linear/scale-check.ts: data too small or too large for double precision', () => {
   const rows = (scale: number) => Array.from({ length: 12 }, (_, i) => [((i * 7) % 12 - 5) * scale]);
-  test.each([1e-300, 1e-160, 1e-100, 1e150])('data of size %p: #NUM! saying to rescale (was "every value is the same" or an internal eigen-solver message)', (scale) => {
+  test.each([1e-300, 1e-160, 1e-100, 1e150])('data of size %p: #NUM! saying to rescale (was "every value is the same" or an internal eigen-solver ' +
+    'message)', (scale) => {
     const target = Array.from({ length: 12 }, (_, i) => [((i * 5) % 12) * (scale === 1e-100 ? 1e-100 : 1)]);
     const e = sheetError(() => F.cost(rows(scale), scale === 1e-100 ? target : rows(1), 'linear'));
     expect(e.code).toBe('#NUM!');
@@ -128,7 +129,7 @@ describe('linear/fit.ts with linear/scale-check.ts: data too small or too large 
   });
 
   test('a ridge too large for the data is #NUM! saying to rescale, not an internal message', () => {
-    const e = sheetError(() => F.cost([[1, 1], [1, 2], [1, 3], [1, 4]], [[1, 2], [3, 4], [5, 6], [7, 9]], 'linear', undefined, undefined, 'ridge=1e308'));
+    const e = sheetError(() => F.cost([[1, 1], [1, 2], [1, 3], [1, 4]], [[1, 2], [3, 4], [5, 6], [7, 9]], 'linear', 'ridge=1e308'));
     expect(e.message).not.toMatch(/symmetricEigen/);
     expect(e.message).toMatch(/rescale/);
   });

@@ -1,11 +1,11 @@
 import * as calls from '../../src/functions/calls';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { formatSummary, short, summariseFormulas } from '../../src/headless/fit-summary';
 
 afterEach(() => forgetAll());
 
 describe('summariseFormulas', () => {
-  test('finds REMAP.FIT cells with their map\'s diagnostics, and formulas that gave errors', () => {
+  test("finds REMAP.FIT cells with their map's diagnostics, and formulas that gave errors", () => {
     // Source: src/functions/calls.ts fit(), called directly
     const handle = calls.fit([[1], [2], [3], [4]], [[10], [20], [30], [40]]) as string;
     const s = summariseFormulas([

@@ -1,10 +1,10 @@
 import { CellError as HfCellError, EmptyValue, ErrorType, SimpleRangeValue } from 'hyperformula';
-import { CellError } from '../../src/functions/cells';
+import { CellError } from '../../src/input/cells';
 import { argFromHf, cellFromHf, cellToHf, gridToHf, hfErrorFactory } from '../../src/headless/hf-values';
 
 describe('values in from HyperFormula', () => {
   test('EmptyValue is a blank, HyperFormula errors are error cells, formatted numbers are numbers', () => {
-    // Source: src/functions/cells.ts (blank is null; error cells are CellError)
+    // Source: src/input/cells.ts (blank is null; error cells are CellError)
     expect(cellFromHf(EmptyValue)).toBeNull();
     expect(cellFromHf(3)).toBe(3);
     expect(cellFromHf('x')).toBe('x');
@@ -15,8 +15,18 @@ describe('values in from HyperFormula', () => {
     expect(cellFromHf({ val: 0.25, format: '0%' })).toBe(0.25);
   });
   test('a range becomes a list of rows; a missing argument stays undefined', () => {
-    // Source: src/functions/coerce.ts (a range is a list of rows)
-    expect(argFromHf(SimpleRangeValue.onlyValues([[1, EmptyValue], ['a', 2]] as never))).toEqual([[1, null], ['a', 2]]);
+    // Source: src/input/coerce.ts (a range is a list of rows)
+    expect(
+      argFromHf(
+        SimpleRangeValue.onlyValues([
+          [1, EmptyValue],
+          ['a', 2],
+        ] as never),
+      ),
+    ).toEqual([
+      [1, null],
+      ['a', 2],
+    ]);
     expect(argFromHf(undefined)).toBeUndefined();
   });
 });
@@ -36,7 +46,16 @@ describe('values out to HyperFormula', () => {
   test('a grid is padded with blanks to the announced size, and a longer one is cut with a note in its last row', () => {
     // Source: the function's contract
     expect(gridToHf([[1], [2]], 3, 1).data).toEqual([[1], [2], [EmptyValue]]);
-    const cut = gridToHf([['a', 1], ['b', 2], ['c', 3], ['d', 4]], 3, 2).data;
+    const cut = gridToHf(
+      [
+        ['a', 1],
+        ['b', 2],
+        ['c', 3],
+        ['d', 4],
+      ],
+      3,
+      2,
+    ).data;
     expect(cut[0]).toEqual(['a', 1]);
     expect(cut[2][0]).toBe('(2 more rows not shown)');
   });

@@ -3,7 +3,13 @@ import { rangeNumbers } from '../../src/headless/range-values';
 describe('rangeNumbers', () => {
   test('reads a block row-major, with non-numbers as NaN', () => {
     // Source: worked example
-    const values = { Data: [[1, 2], ['x', 4], [null, { error: '#N/A', message: '' }]] };
+    const values = {
+      Data: [
+        [1, 2],
+        ['x', 4],
+        [null, { error: '#N/A', message: '' }],
+      ],
+    };
     const r = rangeNumbers(values, 'Data!A1:B3');
     expect(r.rows).toBe(3);
     expect(r.cols).toBe(2);

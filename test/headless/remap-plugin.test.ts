@@ -1,6 +1,6 @@
 import { DetailedCellError, HyperFormula } from 'hyperformula';
 import * as calls from '../../src/functions/calls';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { REPORT_ROWS, registerRemapPlugin } from '../../src/headless/remap-plugin';
 
 registerRemapPlugin();
@@ -49,7 +49,14 @@ describe('REMAP functions in HyperFormula', () => {
   });
   test('errors arrive as spreadsheet errors of the same type, with the message saying what to fix', () => {
     // Source: src/functions/excel-errors.ts mapping (value -> #VALUE!, na -> #N/A)
-    const hf = build([[null, '=REMAP.FIT(A1:A12, B1:B10, "nope")', '=REMAP.APPLY("remap:linear:5x1:0123", A1:A2)', '=REMAP.VALUES(A1:A2, A1:A12, B1:B10, "quantile", , , "colour=red")']]);
+    const hf = build([
+      [
+        null,
+        '=REMAP.FIT(A1:A12, B1:B10, "nope")',
+        '=REMAP.APPLY("remap:linear:5x1:0123", A1:A2)',
+        '=REMAP.VALUES(A1:A2, A1:A12, B1:B10, "quantile", "colour=red")',
+      ],
+    ]);
     const unknown = hf.getCellValue({ sheet: 0, row: 0, col: 3 }) as DetailedCellError;
     expect(unknown).toBeInstanceOf(DetailedCellError);
     expect(unknown.value).toBe('#VALUE!');
@@ -64,7 +71,16 @@ describe('REMAP functions in HyperFormula', () => {
   });
   test('per-cell errors inside a spilled result keep their place: text in values gives #VALUE! there', () => {
     // Source: README "Input rules" (text in values gives #VALUE! in its place; a blank stays blank)
-    const hf = HyperFormula.buildFromArray([[1, 10, 1], [2, 20, 'x'], [3, 30, null], [4, 40, 3], ['', '', '=REMAP.VALUES(C1:C4, A1:A4, B1:B4)']], { licenseKey: 'gpl-v3' });
+    const hf = HyperFormula.buildFromArray(
+      [
+        [1, 10, 1],
+        [2, 20, 'x'],
+        [3, 30, null],
+        [4, 40, 3],
+        ['', '', '=REMAP.VALUES(C1:C4, A1:A4, B1:B4)'],
+      ],
+      { licenseKey: 'gpl-v3' },
+    );
     expect(hf.getCellValue({ sheet: 0, row: 4, col: 2 })).toBe(10);
     expect((hf.getCellValue({ sheet: 0, row: 5, col: 2 }) as DetailedCellError).value).toBe('#VALUE!');
     expect(hf.getCellValue({ sheet: 0, row: 6, col: 2 })).toBeNull();

@@ -1,7 +1,7 @@
 import { Workbook } from 'exceljs';
 import { fitMap } from '../../src/engine/methods';
 import { sample } from '../../src/engine/points';
-import { forgetAll, recall } from '../../src/functions/store';
+import { forgetAll, recall } from '../../src/fits';
 import { runWorkbook } from '../../src/headless/run-workbook';
 
 afterEach(() => forgetAll());

@@ -11,7 +11,15 @@ export class StubSheetError extends Error {
 export function installCustomFunctionsStub(): void {
   (globalThis as Record<string, unknown>).CustomFunctions = {
     Error: StubSheetError,
-    ErrorCode: { invalidValue: '#VALUE!', invalidNumber: '#NUM!', notAvailable: '#N/A', divisionByZero: '#DIV/0!', nullReference: '#NULL!', invalidName: '#NAME?', invalidReference: '#REF!' },
+    ErrorCode: {
+      invalidValue: '#VALUE!',
+      invalidNumber: '#NUM!',
+      notAvailable: '#N/A',
+      divisionByZero: '#DIV/0!',
+      nullReference: '#NULL!',
+      invalidName: '#NAME?',
+      invalidReference: '#REF!',
+    },
     associate: () => undefined,
   };
 }

@@ -5,7 +5,10 @@ import { main, type CliIO } from '../../src/cli/main';
  * written to by --out). Returns the exit code and what went to stdout and stderr.
  * A throw from `main` (it must return an exit code instead) fails loudly.
  */
-export async function runCli(argv: string[], files: Record<string, string>): Promise<{ code: number; out: string; err: string; files: Record<string, string> }> {
+export async function runCli(
+  argv: string[],
+  files: Record<string, string>,
+): Promise<{ code: number; out: string; err: string; files: Record<string, string> }> {
   let out = '';
   let err = '';
   const io: CliIO = {

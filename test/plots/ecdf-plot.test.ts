@@ -8,14 +8,24 @@ const b = Object.freeze([5, 1, 3, NaN, 2]);
 describe('ecdfPlot', () => {
   test.each([300, 640])('at %i px the SVG is well formed with one step path per series', (width) => {
     // Source: the function's contract (one <path class="series"> per series)
-    const svg = ecdfPlot([{ name: 'a', values: a }, { name: 'b', values: b }, { name: 'empty', values: [] }], { width, title: 'T', xLabel: 'x' });
+    const svg = ecdfPlot(
+      [
+        { name: 'a', values: a },
+        { name: 'b', values: b },
+        { name: 'empty', values: [] },
+      ],
+      { width, title: 'T', xLabel: 'x' },
+    );
     expect(xmlProblem(svg)).toBeNull();
     expect(seriesPaths(svg)).toHaveLength(3);
     expect(svg).toContain(`width="${width}"`);
   });
   test('every vertex lies inside the plot area, and each curve runs from 0 (bottom) to 1 (top)', () => {
     // Source: definition of an empirical CDF
-    const svg = ecdfPlot([{ name: 'a', values: a }, { name: 'b', values: b }]);
+    const svg = ecdfPlot([
+      { name: 'a', values: a },
+      { name: 'b', values: b },
+    ]);
     const box = plotBox(svg);
     for (const d of seriesPaths(svg)) {
       const pts = pathPoints(d);

@@ -5,14 +5,20 @@ import { xmlProblem } from './well-formed';
 describe('histogramPlot', () => {
   test.each([300, 640])('at %i px the SVG is well formed with one outline per series and one step per bin', (width) => {
     // Source: the function's contract
-    const svg = histogramPlot([{ name: 'North', values: [1, 2, 2, 3, 9] }, { name: 'South', values: [4, 5, 6] }], { width, bins: 4 });
+    const svg = histogramPlot(
+      [
+        { name: 'North', values: [1, 2, 2, 3, 9] },
+        { name: 'South', values: [4, 5, 6] },
+      ],
+      { width, bins: 4 },
+    );
     expect(xmlProblem(svg)).toBeNull();
     const paths = seriesPaths(svg);
     expect(paths).toHaveLength(2);
     // M, then V+H per bin (2 vertices each), then the closing V
     expect(pathPoints(paths[0])).toHaveLength(1 + 2 * 4 + 1);
   });
-  test('bar heights are each series\' percentage per bin, inside the plot area', () => {
+  test("bar heights are each series' percentage per bin, inside the plot area", () => {
     // Source: worked example: [0, 0, 0, 10] in 2 bins over [0, 10] -> 75 % and 25 %
     const svg = histogramPlot([{ name: 'h', values: Object.freeze([0, 0, 0, 10]) }], { bins: 2, range: [0, 10] });
     const box = plotBox(svg);
@@ -35,7 +41,10 @@ describe('histogramPlot', () => {
   });
   test('escapes names and survives an empty series', () => {
     // Source: XML 1.0 section 2.4
-    const svg = histogramPlot([{ name: 'a&b', values: [] }, { name: 'c', values: [1] }]);
+    const svg = histogramPlot([
+      { name: 'a&b', values: [] },
+      { name: 'c', values: [1] },
+    ]);
     expect(xmlProblem(svg)).toBeNull();
     expect(svg).toContain('a&amp;b');
   });

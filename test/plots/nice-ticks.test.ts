@@ -6,7 +6,12 @@ describe('niceTicks', () => {
     const t = niceTicks(0.3, 9.2, 5);
     expect(t.step).toBe(2);
     expect(t.values).toEqual([0, 2, 4, 6, 8, 10]);
-    for (const [lo, hi, n] of [[-123.4, 5678.9, 6], [0.0012, 0.0097, 4], [1e6, 3.2e6, 5], [-5, -4.99, 3]] as const) {
+    for (const [lo, hi, n] of [
+      [-123.4, 5678.9, 6],
+      [0.0012, 0.0097, 4],
+      [1e6, 3.2e6, 5],
+      [-5, -4.99, 3],
+    ] as const) {
       const r = niceTicks(lo, hi, n);
       expect(r.lo).toBeLessThanOrEqual(lo);
       expect(r.hi).toBeGreaterThanOrEqual(hi);

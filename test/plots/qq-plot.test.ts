@@ -6,12 +6,19 @@ describe('qqPlot', () => {
   test.each([300, 640])('at %i px the SVG is well formed with `points` quantile marks per series and one diagonal', (width) => {
     // Source: the function's contract
     const ref = Object.freeze(Array.from({ length: 100 }, (_, i) => i));
-    const svg = qqPlot({ name: 'target', values: ref }, [{ name: 'before', values: ref.map((v) => v / 2) }, { name: 'after', values: ref }], { width, points: 25 });
+    const svg = qqPlot(
+      { name: 'target', values: ref },
+      [
+        { name: 'before', values: ref.map((v) => v / 2) },
+        { name: 'after', values: ref },
+      ],
+      { width, points: 25 },
+    );
     expect(xmlProblem(svg)).toBeNull();
     expect(count(svg, 'class="pt"')).toBe(50);
     expect(count(svg, 'class="diagonal"')).toBe(1);
   });
-  test('a series with the reference\'s distribution lies on the diagonal, and every mark is inside the plot area', () => {
+  test("a series with the reference's distribution lies on the diagonal, and every mark is inside the plot area", () => {
     // Source: definition of a Q-Q plot (equal quantiles give y = x)
     const ref = Array.from({ length: 200 }, (_, i) => i * 3 - 50);
     const svg = qqPlot({ name: 'r', values: ref }, [{ name: 'same', values: [...ref].reverse() }], { points: 40 });

@@ -7,7 +7,13 @@ describe('scatterPlot', () => {
     // Source: the function's contract
     const x = Object.freeze([0, 1, 2, NaN, 4]);
     const y = Object.freeze([1, 0, 3, 2, Infinity]);
-    const svg = scatterPlot([{ name: 'a', x, y }, { name: 'b', x: [5, 6], y: [-1, -2] }], { width });
+    const svg = scatterPlot(
+      [
+        { name: 'a', x, y },
+        { name: 'b', x: [5, 6], y: [-1, -2] },
+      ],
+      { width },
+    );
     expect(xmlProblem(svg)).toBeNull();
     expect(count(svg, 'class="pt"')).toBe(3 + 2);
   });

@@ -27,6 +27,21 @@ describe('quantileOf', () => {
   });
   test('extentOf spans all non-empty series', () => {
     // Source: worked example
-    expect(extentOf([sortSeries({ name: 'a', values: [1, 5] }), sortSeries({ name: 'b', values: [-2] }), sortSeries({ name: 'c', values: [] })])).toEqual([-2, 5]);
+    expect(extentOf([sortSeries({ name: 'a', values: [1, 5] }), sortSeries({ name: 'b', values: [-2] }), sortSeries({ name: 'c', values: [] })])).toEqual([
+      -2, 5,
+    ]);
+  });
+});
+
+describe('sortSeries on the weighted empirical distribution', () => {
+  test('merges tied values, adding their weights, and counts every plotted row', () => {
+    // Source: worked example (values 1, 2, 2 with weights 1, 1, 2: P(1) = 1/4, P(2) = 3/4)
+    const s = sortSeries({ name: 't', values: [2, 1, 2], weights: [1, 1, 2] });
+    expect(Array.from(s.sorted)).toEqual([1, 2]);
+    expect(Array.from(s.cum)).toEqual([0.25, 1]);
+    expect(Array.from(s.share)).toEqual([0.25, 0.75]);
+    expect(s.rows).toBe(3);
+    expect(quantileOf(s, 0.25)).toBe(1);
+    expect(quantileOf(s, 0.26)).toBe(2);
   });
 });

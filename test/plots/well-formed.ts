@@ -51,7 +51,10 @@ export function attrValues(svg: string, cls: string, name: string): number[] {
 
 /** The x (or y) pixel of each tick label on the x (y) axis, with its text, from the SVG. */
 export function tickLabels(svg: string, axis: 'x' | 'y'): string[] {
-  const re = axis === 'x' ? /<text x="[^"]+" y="[^"]+" text-anchor="middle" fill="#222222">([^<]*)<\/text>/g : /<text x="[^"]+" y="[^"]+" text-anchor="end" fill="#222222">([^<]*)<\/text>/g;
+  const re =
+    axis === 'x'
+      ? /<text x="[^"]+" y="[^"]+" text-anchor="middle" fill="#222222">([^<]*)<\/text>/g
+      : /<text x="[^"]+" y="[^"]+" text-anchor="end" fill="#222222">([^<]*)<\/text>/g;
   const out: string[] = [];
   for (let m = re.exec(svg); m; m = re.exec(svg)) out.push(m[1]);
   return out;

@@ -52,9 +52,8 @@ function table(x: Points, y: Points): number[] {
 }
 
 describe('exact assignment against outside answers', () => {
-  test('brute force over 6 permutations agrees with the worker/job example recalled from memory (total 9,500)', () => {
-    // Source: from memory, the worker/job example of the Wikipedia article "Hungarian algorithm"
-    // (three workers, three jobs, costs in dollars), re-checked by hand over all 6 permutations:
+  test('a three-worker, three-job table worked by hand over all 6 permutations (total 9,500)', () => {
+    // Source: worked by hand (an invented table of three workers and three jobs, costs in dollars), every permutation:
     // (0,1,2)=11000, (0,2,1)=10000, (1,0,2)=10500, (1,2,0)=9500, (2,0,1)=11500, (2,1,0)=11500.
     const cost = [2500, 4000, 3500, 4000, 6000, 3500, 2000, 4000, 2500];
     expect(bruteForce(cost, 3)).toBe(9500);
@@ -97,7 +96,7 @@ describe('exact assignment against outside answers', () => {
         const f = findPairs(x, y);
         // Source: brute force over all n! permutations of the squared-distance table.
         expect(f.meanSquaredDistance).toBeCloseTo(bruteForce(table(x, y), n) / n, 10);
-        expect(fitPairs({ ...x, weights: null }, { ...y, weights: null }, { tails: 'clamp' }).cost().w2Squared).toBe(f.meanSquaredDistance);
+        expect(fitPairs({ ...x, weights: null }, { ...y, weights: null }, { units: 'raw' }).cost().w2Squared).toBe(f.meanSquaredDistance);
       }
     }
   });
@@ -126,7 +125,7 @@ describe('exact assignment against outside answers', () => {
     const n = 99;
     const xs = Array.from({ length: n }, () => r() * 5);
     const ys = Array.from({ length: n }, () => 100 + 30 * r());
-    const map = fitPairs({ ...column(xs), weights: null }, { ...column(ys), weights: null }, { tails: 'clamp' });
+    const map = fitPairs({ ...column(xs), weights: null }, { ...column(ys), weights: null }, { units: 'raw' });
     const medX = quantileSorted([...xs].sort((a, b) => a - b), 0.5);
     const medY = quantileSorted([...ys].sort((a, b) => a - b), 0.5);
     // Source: simple-statistics quantileSorted (the middle value for odd n), with the 1-D monotone rearrangement.

@@ -51,10 +51,15 @@ describe('Bures-Wasserstein closed form against mathjs and textbook identities',
     const u = rng(77);
     const n = 200;
     const d = 3;
-    const mk = (shift: number): Sample => ({ n, d, data: Float64Array.from({ length: n * d }, (_, j) => shift + ((j % d) + 1) * u() + u() * u()), weights: null });
+    const mk = (shift: number): Sample => ({
+      n,
+      d,
+      data: Float64Array.from({ length: n * d }, (_, j) => shift + ((j % d) + 1) * u() + u() * u()),
+      weights: null,
+    });
     const s = mk(0);
     const t = mk(2);
-    const map = fitLinear(s, t, { ridge: 0 }, {}, { compare: false });
+    const map = fitLinear(s, t, { ridge: 0, units: 'raw' }, {}, { compare: false });
     const s1 = rows(weightedMoments(s).cov, d);
     const s2 = rows(weightedMoments(t).cov, d);
     const r1 = sqrtm(s1) as unknown as M;
@@ -69,10 +74,15 @@ describe('Bures-Wasserstein closed form against mathjs and textbook identities',
     const u = rng(5);
     const n = 300;
     const d = 4;
-    const mk = (shift: number, seedScale: number): Sample => ({ n, d, data: Float64Array.from({ length: n * d }, (_, j) => shift + seedScale * ((j % d) + 1) * u() + u() ** 3), weights: null });
+    const mk = (shift: number, seedScale: number): Sample => ({
+      n,
+      d,
+      data: Float64Array.from({ length: n * d }, (_, j) => shift + seedScale * ((j % d) + 1) * u() + u() ** 3),
+      weights: null,
+    });
     const s = mk(0, 1);
     const t = mk(-1, 2);
-    const map = fitLinear(s, t, { ridge: 0 }, {}, { compare: false });
+    const map = fitLinear(s, t, { ridge: 0, units: 'raw' }, {}, { compare: false });
     const m1 = weightedMoments(s);
     const m2 = weightedMoments(t);
     const A = rows(map.parameters.matrix, d);

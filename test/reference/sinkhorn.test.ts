@@ -87,7 +87,7 @@ describe('reference: entropic transport', () => {
     const sy = Y.map((r) => r[0]).sort((p, q) => p - q);
     // Source: fact of the trade, exact 1-D W2^2 of equal-size samples = mean squared difference of sorted values.
     const w2sq = sx.reduce((s, v, i) => s + (v - sy[i]) ** 2, 0) / 60;
-    const map = fitEntropic(toSample(X), toSample(Y), { eps: 0.02, tolerance: 1e-8, max_iterations: 20000 });
+    const map = fitEntropic(toSample(X), toSample(Y), { smoothing: 0.02, tolerance: 1e-8, max_iterations: 20000, units: 'raw' });
     expect(Math.abs(map.cost().w2Squared - w2sq) / w2sq).toBeLessThan(0.01);
   });
 });

@@ -5,7 +5,7 @@ import { ValueType, Workbook } from 'exceljs';
 import { parseCSV } from '../../src/cli/csv';
 import { fitMap } from '../../src/engine/methods';
 import { sample, type Points } from '../../src/engine/points';
-import { forgetAll } from '../../src/functions/store';
+import { forgetAll } from '../../src/fits';
 import { runWorkbook, type RunResult } from '../../src/headless/run-workbook';
 import { rangeNumbers } from '../../src/headless/range-values';
 import { DEMO_ENTROPIC_ROWS, DEMO_GRADIENT_NET_SETTINGS, DEMO_WORKBOOKS, makeDemoWorkbooks } from '../../scripts/make-demo-workbooks';
@@ -46,7 +46,8 @@ function expectSame(result: RunResult, ref: string, want: ArrayLike<number>): vo
 }
 
 describe('demo workbooks', () => {
-  test('are valid xlsx files: a zip holding [Content_Types].xml and one part per sheet, that exceljs reads back with the REMAP formulas and an About sheet', async () => {
+  test('are valid xlsx files: a zip holding [Content_Types].xml and one part per sheet, that exceljs reads back with the REMAP formulas and an ' +
+    'About sheet', async () => {
     // Source: ECMA-376 Part 2 (Open Packaging Conventions): [Content_Types].xml; xl/worksheets/sheetN.xml
     expect(paths.map((p) => path.basename(p))).toEqual(DEMO_WORKBOOKS.map((d) => d.file));
     for (const p of paths) {
@@ -94,7 +95,8 @@ describe('demo workbooks', () => {
     expect(rangeNumbers(r.values, 'WhatIf!D7').data[0]).toBe(map.invert(pts([[100000]])).data[0]);
   });
 
-  test('scenario-alignment (reduced: 1,000 scenarios, gradient-net steps=0, entropic on 300 rows): each aligned block equals the engine\'s map applied to the model scenarios', async () => {
+  test('scenario-alignment (reduced: 1,000 scenarios, gradient-net steps=0, entropic on 300 rows): each aligned block equals the engine\'s map ' +
+    'applied to the model scenarios', async () => {
     // Source: src/engine fitMap('linear' | 'entropic' | 'gradient-net') + apply called directly, same settings
     const wb = new Workbook();
     await wb.xlsx.readFile(paths[1]);

@@ -8,14 +8,15 @@ const diag: Diagnostics = Object.freeze({
   d: 2,
   columns: ['income', 'age'],
   dropped: { source: 3, target: 0 },
-  cost: { kind: 'sinkhorn-divergence', w2Squared: 1.5, w2: Math.sqrt(1.5), note: 'The debiased cost.' },
+  cost: { kind: 'sinkhorn-divergence', w2Squared: 1.5, w2: Math.sqrt(1.5), note: 'The debiased cost.', bound: 'estimate', label: 'squared W2, estimate' },
   energyBefore: 0.4,
   energyAfter: 0.01,
   ksMaxAfter: 0.034,
   minJacobianEigenvalue: 0.2,
   convergence: { iterations: 230, finalError: 1e-7, converged: true, criterion: 'marginal error' },
-  applied: { rows: 0, outside: 0 },
+  outside: 'every result stays inside the target hull',
   warnings: [{ code: 'rows-dropped', message: '3 source entries were skipped.', action: 'Check the ranges.' }],
+  reminder: 'A statistical estimate.',
 }) as Diagnostics;
 
 describe('diagnostics in plain words', () => {

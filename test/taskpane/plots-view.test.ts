@@ -1,13 +1,29 @@
 import { sample } from '../../src/engine/points';
-import { thin } from '../../src/taskpane/fit-job';
-import { PLOT_MAX_ROWS } from '../../src/taskpane/fit-messages';
+import { thin } from '../../src/fits/worker/cells-job';
+import { PLOT_MAX_ROWS } from '../../src/fits/worker/messages';
 import { chartTable, distributionSvg, qqSvg, scatterSvg, type PlotData } from '../../src/taskpane/plots-view';
 
 const s = (rows: number[][]) => ({ n: rows.length, d: rows[0].length, data: Float64Array.from(rows.flat()), weights: null });
 const data: PlotData = Object.freeze({
-  source: s([[1, 10], [2, 20], [3, 30], [4, 40]]),
-  mapped: s([[11, 1], [12, 2], [13, 3], [14, 4]]),
-  target: s([[11, 1], [12, 2], [13, 3], [14, 4], [15, 5]]),
+  source: s([
+    [1, 10],
+    [2, 20],
+    [3, 30],
+    [4, 40],
+  ]),
+  mapped: s([
+    [11, 1],
+    [12, 2],
+    [13, 3],
+    [14, 4],
+  ]),
+  target: s([
+    [11, 1],
+    [12, 2],
+    [13, 3],
+    [14, 4],
+    [15, 5],
+  ]),
   columns: ['a', 'b'],
 });
 
@@ -30,7 +46,10 @@ describe('the pane plots', () => {
 
   test('thin keeps every k-th row so that at most PLOT_MAX_ROWS remain, weights alongside', () => {
     const n = 2 * PLOT_MAX_ROWS + 1;
-    const big = sample(Array.from({ length: n }, (_, i) => [i, -i]), Array.from({ length: n }, (_, i) => i + 1));
+    const big = sample(
+      Array.from({ length: n }, (_, i) => [i, -i]),
+      Array.from({ length: n }, (_, i) => i + 1),
+    );
     const t = thin(big);
     expect(t.n).toBeLessThanOrEqual(PLOT_MAX_ROWS);
     expect(Array.from(t.data.subarray(0, 4))).toEqual([0, -0, 3, -3]);

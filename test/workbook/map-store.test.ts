@@ -1,6 +1,6 @@
 import * as F from '../../src/functions/functions';
 import type { TransportMap } from '../../src/engine/map';
-import { forgetAll, resolveMap, setKeeper } from '../../src/functions/store';
+import { forgetAll, resolveMap, setKeeper } from '../../src/fits';
 import type { ExcelRun } from '../../src/workbook/excel-run';
 import { CHUNK_NAMESPACE, INDEX_NAMESPACE, WorkbookMapStore } from '../../src/workbook/map-store';
 import { installCustomFunctionsStub } from '../helpers/custom-functions-stub';
@@ -114,7 +114,12 @@ describe('WorkbookMapStore keeps maps in custom XML parts', () => {
     const mock = officeMock.createWorkbook({ payloadLimit: 200_000 });
     const store = new WorkbookMapStore(mock.run as ExcelRun, { chunkChars: 20_000, now: FIXED });
     const n = 20000;
-    const h = (await F.fit(col(Array.from({ length: n }, (_, i) => Math.sin(i) * 1000 + i / 7)), col(Array.from({ length: n }, (_, i) => Math.cos(i) * 10 + i / 3)))) as unknown as string;
+    const h = (await F.fit(
+      col(Array.from({ length: n }, (_, i) => Math.sin(i) * 1000 + i / 7)),
+      col(Array.from({ length: n }, (_, i) => Math.cos(i) * 10 + i / 3)),
+      'quantile',
+      'knots=100000',
+    )) as unknown as string;
     const text = JSON.stringify(((await resolveMap(h, 'test')) as TransportMap).toJSON());
     expect(text.length).toBeGreaterThan(200_000);
     await store.save(h, text);

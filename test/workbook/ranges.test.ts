@@ -40,13 +40,24 @@ describe('reading and writing cells through Office.js (mocked)', () => {
   test('insertComparisonChart adds a sheet with the table and one XY chart, under a name not yet taken', async () => {
     const wb = officeMock.createWorkbook();
     const run = wb.run as ExcelRun;
-    const table = { title: 't', header: ['share', 'a', 'b'], rows: [[0, 1, NaN], [1, 2, 3]] };
+    const table = {
+      title: 't',
+      header: ['share', 'a', 'b'],
+      rows: [
+        [0, 1, NaN],
+        [1, 2, 3],
+      ],
+    };
     expect(await insertComparisonChart(run, table)).toBe('Remap chart');
     expect(await insertComparisonChart(run, table)).toBe('Remap chart 2');
     const sheet = wb.state.sheets.find((s: { name: string }) => s.name === 'Remap chart');
     expect(sheet.charts).toHaveLength(1);
     expect(sheet.charts[0]).toMatchObject({ type: 'XYScatterLinesNoMarkers', seriesBy: 'Columns', title: { text: 't' }, source: "'Remap chart'!A1:C3" });
-    expect(await readValues(run, "'Remap chart'!A1:C3")).toEqual([['share', 'a', 'b'], [0, 1, ''], [1, 2, 3]]);
+    expect(await readValues(run, "'Remap chart'!A1:C3")).toEqual([
+      ['share', 'a', 'b'],
+      [0, 1, ''],
+      [1, 2, 3],
+    ]);
     await expect(insertComparisonChart(run, { title: 't', header: ['x'], rows: [[1]] })).rejects.toThrow(/at least two names/);
   });
 });

@@ -14,8 +14,9 @@ const NEGLIGIBLE = -60;
  *   T(x) = sum_j y_j w_j(x),  w_j(x) = softmax_j( log b_j + (g_j - |x - y_j|^2 / 2) / eps ),
  * the barycentre of the support points y_j under the conditional plan given x.
  * T is the gradient of the convex function
- *   x -> |x|^2 / 2 - eps log sum_j b_j exp((g_j - |x - y_j|^2 / 2) / eps),
- * so it is monotone. With the roles swapped (support = source rows, potential
+ *   x -> |x|^2 / 2 + eps log sum_j b_j exp((g_j - |x - y_j|^2 / 2) / eps)
+ *      = eps log sum_j b_j exp((g_j + <x, y_j> - |y_j|^2 / 2) / eps)
+ * (a log-sum-exp of affine functions), so it is monotone. With the roles swapped (support = source rows, potential
  * = f) the same routine gives the reverse entropic map. The softmax uses a
  * row-wise max shift, so it never overflows.
  * Cost: O(r m d) for r rows; O(m) scratch. Never mutates its inputs.

@@ -1,13 +1,14 @@
-import type { SettingSpec } from '../settings';
+import { TAILS_SETTING, type SettingSpec } from '../settings';
 import { UNITS_SETTING } from '../stats/column-scales';
 import { MAX_HIDDEN, MAX_LAYERS } from './network-params';
 
 /**
- * The gradient-net method's own settings (the common `tails` is added by the
- * method list in methods.ts). Defaults chosen on the tuning half of the bench
- * zoo (bench/gradient-net.bench.ts).
+ * The gradient-net method's settings, `tails` (honoured: clamp or continue the
+ * network, fitted-map.ts) and `units` included. Defaults chosen on the tuning
+ * half of the bench zoo (bench/gradient-net-zoo.bench.ts).
  */
 export const GRADIENT_NET_SETTINGS = [
+  TAILS_SETTING,
   {
     name: 'hidden',
     type: 'integer',

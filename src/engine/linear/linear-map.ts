@@ -1,4 +1,4 @@
-import { BaseMap, type MapHeader } from '../base';
+import { BaseMap, jsonHeader, type MapHeader } from '../base';
 import { RemapError } from '../errors';
 import type { FitRecord, MapJSON, Mapped } from '../map';
 import type { Points } from '../points';
@@ -89,7 +89,7 @@ export class LinearMap extends BaseMap {
       for (const x of v as unknown[]) if (typeof x !== 'number' || !Number.isFinite(x)) bad(`"params.${f}" holds a value that is not a finite number`);
       params[f] = v as number[];
     }
-    const header: MapHeader = { method: 'linear', d, settings: json.settings, columns: json.columns, n: json.n, dropped: json.dropped };
+    const header = jsonHeader(json);
     return new LinearMap(header, json.fitted, params);
   }
 }

@@ -9,6 +9,12 @@ export interface AssignmentOptions {
   readonly onProgress?: (p: Progress) => void;
   /** The name that error messages start with (default 'solveAssignment'). */
   readonly caller?: string;
+  /**
+   * Column potentials to start from (length n, finite), such as `auctionPrices` gives: the start-up
+   * column reduction is then skipped and every row starts free. Any finite prices give the same
+   * optimal total; good ones make the augmenting searches short.
+   */
+  readonly prices?: Float64Array;
 }
 
 /** An optimal one-to-one assignment of n rows to n columns, with an optimality certificate. */
@@ -88,7 +94,13 @@ export function solveAssignment(cost: Float64Array, n: number, options: Assignme
     colsol[0] = 0;
     v[0] = cost[0];
   } else if (n > 1) {
-    augmentations = jonkerVolgenant(cost, n, rowsol, colsol, v, signal, onProgress, started, fn);
+    if (options.prices) {
+      if (options.prices.length !== n || !options.prices.every(Number.isFinite)) {
+        throw new RemapError(`${fn}: the starting prices must be ${n} finite numbers, one per column.`);
+      }
+      v.set(options.prices);
+    }
+    augmentations = jonkerVolgenant(cost, n, rowsol, colsol, v, signal, onProgress, started, fn, !!options.prices);
   }
 
   const u = new Float64Array(n);
@@ -116,7 +128,20 @@ function jonkerVolgenant(
   onProgress: ((p: Progress) => void) | undefined,
   started: number,
   fn: string,
+  warm: boolean,
 ): number {
+  const free = new Int32Array(n);
+  let numfree = 0;
+  if (warm) {
+    // Prices given: every row starts free and the augmenting row reduction below assigns most of them.
+    for (let i = 0; i < n; i++) free[numfree++] = i;
+  } else numfree = coldStart(c, n, rowsol, colsol, v, free);
+  checkAbort(signal, fn);
+  return augment(c, n, rowsol, colsol, v, free, numfree, signal, onProgress, started, fn);
+}
+
+/** Column reduction and reduction transfer (Jonker & Volgenant 1987): prices and a partial assignment from scratch; returns the free rows' count. */
+function coldStart(c: Float64Array, n: number, rowsol: Int32Array, colsol: Int32Array, v: Float64Array, free: Int32Array): number {
   // Column reduction: v_j = min_i c_ij; each column goes to its minimising row
   // if that row has no cheaper column yet. Column minima are found row by row
   // (row-major, cache friendly); ties go to the first row, as in the paper.
@@ -148,11 +173,8 @@ function jonkerVolgenant(
       colsol[j] = -1;
     }
   }
-  checkAbort(signal, fn);
-
   // Reduction transfer: a row holding exactly one column passes its slack to
   // that column's price, so other rows find that column dearer.
-  const free = new Int32Array(n);
   let numfree = 0;
   for (let i = 0; i < n; i++) {
     if (matches[i] === 0) {
@@ -170,8 +192,23 @@ function jonkerVolgenant(
       v[j1] -= min;
     }
   }
-  checkAbort(signal, fn);
+  return numfree;
+}
 
+/** Augmenting row reduction, then shortest augmenting paths for the rows still free; returns the number of paths. */
+function augment(
+  c: Float64Array,
+  n: number,
+  rowsol: Int32Array,
+  colsol: Int32Array,
+  v: Float64Array,
+  free: Int32Array,
+  numfree: number,
+  signal: { readonly aborted: boolean } | undefined,
+  onProgress: ((p: Progress) => void) | undefined,
+  started: number,
+  fn: string,
+): number {
   // Augmenting row reduction, two passes. A free row takes its cheapest column
   // (reduced cost umin), lowering that column's price by the gap to its second
   // cheapest (usubmin) so the row stays on its minimum; the row it displaces

@@ -3,7 +3,9 @@ import { RemapError } from '../errors';
 import type { FitContext } from '../map';
 import type { MethodSpec } from '../method';
 import type { Sample } from '../points';
-import type { Settings } from '../settings';
+import type { SettingSpec, Settings } from '../settings';
+import { divideColumns, pooledColumnScales, UNITS_SETTING } from '../stats/column-scales';
+import { settingsOf } from '../settings';
 import { findPairs } from './match-rows';
 import { PairsMap } from './pairs-map';
 
@@ -17,7 +19,7 @@ import { PairsMap } from './pairs-map';
  *
  * @param source n rows, finite, no weights, 1 <= n <= 5,000. Not mutated.
  * @param target n rows (the same n) with the same columns. Not mutated.
- * @param settings resolved settings (the pairs method has none of its own).
+ * @param settings resolved settings: units (standardised, the default, or raw).
  * @param ctx dropped rows, column names, progress callback and cancellation signal.
  * @throws RemapError if the sizes differ (suggesting the entropic method), weights are given,
  *   the samples are too large, or the fit is cancelled (kind 'cancelled').
@@ -29,24 +31,32 @@ export function fitPairs(source: Sample, target: Sample, settings: Settings, ctx
   if (source.weights || target.weights) {
     throw new RemapError(`${fn}: the pairs method does not take row weights (it pairs rows one to one); leave the weights out, or use the entropic method, which takes them.`);
   }
-  const found = findPairs(source, target, { signal: ctx.signal, onProgress: ctx.onProgress, caller: fn });
+  // units = standardised (default): pair the rows for the cost that divides each column by its pooled spread.
+  const units = settingsOf(PAIRS_SETTINGS, settings, 'pairs').units;
+  const scales = units === 'standardised' ? pooledColumnScales(source, target) : null;
+  const x = scales ? divideColumns(source, scales) : source;
+  const y = scales ? divideColumns(target, scales) : target;
+  const found = findPairs(x, y, { signal: ctx.signal, onProgress: ctx.onProgress, caller: fn });
   const header: MapHeader = {
     method: 'pairs',
     d: source.d,
-    settings,
+    settings: Object.freeze({ ...settings, units }),
     columns: ctx.columns ?? null,
     n: { source: source.n, target: target.n },
     dropped: ctx.dropped ?? { source: 0, target: 0 },
   };
-  return PairsMap.fromMatch(source, target, found.match, header, found.augmentations);
+  return PairsMap.fromMatch(source, target, found.match, header, found.augmentations, scales);
 }
+
+/** The pairs method's settings: the shared `units` choice only. */
+export const PAIRS_SETTINGS = [UNITS_SETTING] as const satisfies readonly SettingSpec[];
 
 /** The pairs method, as methods.ts lists it. */
 export const pairsMethod: MethodSpec = {
   name: 'pairs',
   summary: 'Exact optimal one-to-one pairing of source and target rows (samples of equal size); maps the source rows only.',
   shape: 'joint',
-  settings: [],
+  settings: PAIRS_SETTINGS,
   minRows: () => 1,
   weights: false,
   fit: fitPairs,

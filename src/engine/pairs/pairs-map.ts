@@ -2,6 +2,7 @@ import { BaseMap, sizeWarnings, type MapHeader } from '../base';
 import { RemapError } from '../errors';
 import type { CostReport, FitRecord, MapJSON, Mapped, Warning } from '../map';
 import type { Points } from '../points';
+import { divideColumns } from '../stats/column-scales';
 import { RowLookup } from './row-lookup';
 import { twoCycleCheck } from './two-cycle-check';
 
@@ -72,15 +73,17 @@ export class PairsMap extends BaseMap {
    * @param source n rows; target n rows of the same d; match a permutation of 0..n-1.
    * @param header what the fit was (method 'pairs', d, settings, columns, n, dropped).
    * @param augmentations rows matched by augmenting paths, for the convergence record.
+   * @param scales per-column divisors the pairing was optimal for (units = standardised: the pooled spreads), or
+   *   null for raw units; the cost and the 2-cycle check are then read in those units.
    * @throws RemapError if `match` is not a permutation of 0..n-1 or the shapes disagree.
    */
-  static fromMatch(source: Points, target: Points, match: Int32Array, header: MapHeader, augmentations = 0): PairsMap {
+  static fromMatch(source: Points, target: Points, match: Int32Array, header: MapHeader, augmentations = 0, scales: Float64Array | null = null): PairsMap {
     const fn = 'fit (pairs)';
     checkShapes(source, target, header, fn);
     const perm = checkPermutation(Array.from(match), source.n, fn);
     const s = copyPoints(source);
     const t = copyPoints(target);
-    const fitted = fitRecord(s, t, perm, header, augmentations);
+    const fitted = fitRecord(s, t, perm, header, augmentations, scales);
     return new PairsMap(header, fitted, s, t, perm);
   }
 
@@ -167,7 +170,10 @@ function groupAverages(lookup: RowLookup, partner: Int32Array, other: Points): F
   return out;
 }
 
-function fitRecord(source: Points, target: Points, match: Int32Array, header: MapHeader, augmentations: number): FitRecord {
+function fitRecord(raw: Points, rawTarget: Points, match: Int32Array, header: MapHeader, augmentations: number, scales: Float64Array | null): FitRecord {
+  // The cost and the monotonicity check in the units the pairing is optimal for.
+  const source = scales ? divideColumns(raw, scales) : raw;
+  const target = scales ? divideColumns(rawTarget, scales) : rawTarget;
   const { n, d } = source;
   let sum = 0;
   for (let i = 0; i < n; i++) {
@@ -181,16 +187,18 @@ function fitRecord(source: Points, target: Points, match: Int32Array, header: Ma
     kind: 'assignment',
     w2Squared,
     w2: Math.sqrt(w2Squared),
-    note: 'Mean squared distance between each source row and its partner in the optimal one-to-one matching: the exact squared 2-Wasserstein distance between the two samples (equal sizes, equal weights).',
+    note: scales
+      ? 'Mean squared distance, in standardised units (each column divided by its pooled spread), between each source row and its partner in the optimal one-to-one matching: the exact squared 2-Wasserstein distance between the two samples for that weighted cost (equal sizes, equal weights).'
+      : 'Mean squared distance between each source row and its partner in the optimal one-to-one matching: the exact squared 2-Wasserstein distance between the two samples (equal sizes, equal weights).',
   };
   const warnings: Warning[] = [...sizeWarnings(header)];
   warnings.push({
     code: 'source-rows-only',
-    message: `The pairs map pairs the ${n} source rows with the ${n} target rows one to one; it maps those source rows only (and inverts those target rows only), not new values.`,
+    message: `The pairs map pairs the ${n} source rows with the ${n} target rows one to one; it maps those source rows only (and inverts those target rows only): any other value gives an error (#N/A) naming its row, never a guess.`,
     action: 'To map values that are not source rows, fit with the entropic or gradient-net method.',
   });
-  const srcLook = new RowLookup(source);
-  const tgtLook = new RowLookup(target);
+  const srcLook = new RowLookup(raw);
+  const tgtLook = new RowLookup(rawTarget);
   if (srcLook.groups < n || tgtLook.groups < n) {
     warnings.push({
       code: 'ties',

@@ -11,6 +11,8 @@ export interface ColumnMap {
   readonly inverse: OneWayMap;
   /** Plain JSON (finite numbers, plain arrays) from which the column is rebuilt bit-identically; built on demand (O(k)). */
   params(): Readonly<Record<string, unknown>>;
+  /** Set when the fit kept fewer knots than the full map (see compact-knots.ts): how many, and the largest difference each way. */
+  readonly compaction?: { readonly knots: number; readonly fullKnots: number; readonly largestError: number; readonly largestErrorInverse: number };
   /** Set on freshly fitted one-column maps (not restored ones): see `FittedSource`. */
   readonly fittedSource?: FittedSource;
 }

@@ -1,12 +1,14 @@
 import { RemapError } from '../errors';
-import type { MapHeader } from '../base';
+import { fitHeader, jsonHeader, type MapHeader } from '../base';
 import { sizeWarnings } from '../base';
 import type { CostReport, FitContext, FitRecord, MapJSON, MethodName, Warning } from '../map';
 import { columnOf, type Sample } from '../points';
-import type { Settings } from '../settings';
+import { TAILS_SETTING, type SettingSpec, type Settings } from '../settings';
+import { outsideBothTails } from '../outside';
 import type { MethodSpec } from '../method';
 import { sortedCopy, sortWithOrder, sortWithWeights, type SortedWithOrder } from '../stats/sort';
 import { transportCosts1d } from '../stats/wasserstein-1d';
+import { kishEffectiveSize } from '../stats/effective-size';
 import { weightedCdfSorted, type WeightedCdf } from '../stats/weighted-cdf';
 import type { ColumnMap, FittedSource } from './column-map';
 import type { Tails } from './one-way-map';
@@ -16,7 +18,9 @@ import { OneColumnMap } from './one-column-map';
 export interface ColumnRecipe {
   readonly method: MethodName;
   /** Builds the column map from the two merged CDFs. `where` starts error messages. */
-  build(src: WeightedCdf, tgt: WeightedCdf, where: string): ColumnMap;
+  build(src: WeightedCdf, tgt: WeightedCdf, where: string, settings: Settings): ColumnMap;
+  /** The method's own settings (beyond the common `tails`), if any. */
+  readonly settings?: readonly SettingSpec[];
   /** Checks a raw column before fitting (e.g. whole numbers). */
   check?(values: Float64Array, where: string): void;
   /** Rebuilds a column from its saved params. */
@@ -39,25 +43,19 @@ export interface ColumnRecipe {
  */
 export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sample, settings: Settings, ctx: FitContext): OneColumnMap {
   const d = source.d;
-  const header: MapHeader = {
-    method: recipe.method,
-    d,
-    settings,
-    columns: ctx.columns ?? null,
-    n: { source: source.n, target: target.n },
-    dropped: ctx.dropped ?? { source: 0, target: 0 },
-  };
+  const header = fitHeader(recipe.method, source, target, settings, ctx);
   const columns: ColumnMap[] = [];
   const w2: number[] = [];
   let w1 = 0;
   let minSlope = Infinity;
   const tied: string[] = [];
+  const compacted: string[] = [];
   for (let k = 0; k < d; k++) {
     const where = `fit (${recipe.method})${d > 1 || ctx.columns ? `: ${columnName(ctx, k)}` : ''}`;
     const src = columnCdf(recipe, source, k, `${where}: source`, d === 1);
     const s = src.cdf;
     const t = columnCdf(recipe, target, k, `${where}: target`, false).cdf;
-    const c = recipe.build(s, t, where);
+    const c = recipe.build(s, t, where, settings);
     columns.push(src.sorted ? { ...c, fittedSource: mapFittedSource(c, src.raw, src.sorted, tails(settings)) } : c);
     const cost = transportCosts1d(s, t);
     w2.push(cost.w2Squared);
@@ -65,8 +63,10 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
     const slope = c.forward.minSlope();
     if (slope < minSlope) minSlope = slope;
     if (recipe.warnTies && s.tiedRows > 0) tied.push(`${s.tiedRows} of ${s.rows} in ${columnName(ctx, k)}`);
+    if (c.compaction) compacted.push(`${columnName(ctx, k)}: ${c.compaction.knots} of ${c.compaction.fullKnots} knots, largest difference ${c.compaction.largestError.toPrecision(3)} in mapped values (${c.compaction.largestErrorInverse.toPrecision(3)} inverting)`);
   }
-  const warnings: Warning[] = sizeWarnings(header);
+  const effectiveSize = { source: kishEffectiveSize(source.weights, source.n), target: kishEffectiveSize(target.weights, target.n) };
+  const warnings: Warning[] = sizeWarnings(header, effectiveSize);
   if (d > 1) {
     warnings.push({
       code: 'marginals-only',
@@ -79,6 +79,13 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
       code: 'ties',
       message: `Some source rows share a value with other rows (${tied.join('; ')}); rows with the same value all map to one value, so the mapped column has fewer distinct values than the target.`,
       action: 'If the values are whole-number scores, method ordinal spreads each score over its unit interval; otherwise this is expected.',
+    });
+  }
+  if (compacted.length > 0) {
+    warnings.push({
+      code: 'compacted',
+      message: `To keep the map small it keeps fewer knots than the full map, which would keep one per data value (${compacted.join('; ')}); the difference from the full map is largest there and never larger, over the fitted range and beyond it.`,
+      action: 'If that difference matters, set knots to a larger number (above the row count keeps every knot).',
     });
   }
   const total = w2.reduce((a, b) => a + b, 0);
@@ -97,6 +104,8 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
           w2Squared: total,
           w2: Math.sqrt(total),
           w1,
+          bound: 'exact',
+          label: 'squared W2, exact',
           note: 'Exact squared 2-Wasserstein distance (and W1) between the source and target samples, from their quantile functions.',
         }
       : {
@@ -104,9 +113,11 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
           w2Squared: total,
           w2: Math.sqrt(total),
           perColumn: w2,
-          note: `Sum over the ${d} columns of the exact squared 2-Wasserstein distance between source and target columns; it ignores dependence between columns.`,
+          bound: 'lower',
+          label: 'squared W2, lower bound (sum of per-column costs; dependence ignored)',
+          note: `Sum over the ${d} columns of the exact squared 2-Wasserstein distance between source and target columns: a lower bound on the joint squared W2, since the joint optimal coupling's column marginals are couplings of the columns, so the joint cost is at least the sum of the per-column costs; the gap grows with the difference in dependence between columns.`,
         };
-  const fitted: FitRecord = { cost, minJacobianEigenvalue: minSlope, warnings };
+  const fitted: FitRecord = { cost, minJacobianEigenvalue: minSlope, effectiveSize, warnings };
   return new OneColumnMap(header, fitted, columns);
 }
 
@@ -124,14 +135,7 @@ export function restoreOneColumnMap(recipe: ColumnRecipe, json: MapJSON): OneCol
     throw new RemapError(`${where}: the saved map should hold ${json.d} fitted column${json.d === 1 ? '' : 's'} but does not; the saved map is damaged. Fit the map again.`);
   }
   const columns = saved.map((raw, k) => recipe.restore(raw, `${where}, column ${k + 1}`));
-  const header: MapHeader = {
-    method: recipe.method,
-    d: json.d,
-    settings: json.settings,
-    columns: json.columns,
-    n: json.n,
-    dropped: json.dropped,
-  };
+  const header = { ...jsonHeader(json), method: recipe.method };
   return new OneColumnMap(header, json.fitted, columns);
 }
 
@@ -184,15 +188,16 @@ function mapFittedSource(c: ColumnMap, raw: Float64Array, s: SortedWithOrder, t:
 
 /**
  * The MethodSpec of a one-column method from its recipe: each column matched on
- * its own, row weights taken, at least 2 rows per sample, no settings beyond the
- * common `tails`. The three 1-D methods differ only in their recipes.
+ * its own, row weights taken, at least 2 rows per sample, settings `tails`
+ * (TAILS_SETTING) and the recipe's own. The three 1-D methods differ only in their recipes.
  */
 export function oneColumnMethod(recipe: ColumnRecipe, summary: string): MethodSpec {
   return {
     name: recipe.method,
     summary,
     shape: 'one-column',
-    settings: [],
+    settings: [TAILS_SETTING, ...(recipe.settings ?? [])],
+    outside: outsideBothTails(recipe.method),
     minRows: () => 2,
     weights: true,
     fit: (source, target, settings, ctx) => fitOneColumnMap(recipe, source, target, settings, ctx),

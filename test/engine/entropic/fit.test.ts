@@ -18,19 +18,20 @@ describe('fitEntropic', () => {
   const source = normalSample(120, 2, 1);
   const target = normalSample(100, 2, 2, 1.5, 2);
 
-  test('records the eps actually used in the settings, and the cost as 2 x the Sinkhorn divergence', () => {
+  test('records the smoothing (eps) actually used in the settings, and the cost as 2 x the Sinkhorn divergence', () => {
     const map = fitEntropic(source, target, {});
     const diag = map.diagnostics();
-    expect(diag.settings.eps).toBeGreaterThan(0);
-    expect(diag.settings.eps).toBe(map.parts.eps);
+    expect(diag.settings.smoothing).toBeGreaterThan(0);
+    expect(diag.settings.smoothing).toBe(map.parts.eps);
     expect(diag.cost.kind).toBe('sinkhorn-divergence');
     expect(diag.cost.w2).toBeCloseTo(Math.sqrt(diag.cost.w2Squared), 14);
-    expect(diag.cost.note).toMatch(/times 2/);
+    expect(diag.cost.note).toMatch(/Twice the debiased Sinkhorn divergence/);
+    expect(diag.cost.note).toMatch(/biased downward/);
     expect(diag.convergence?.converged).toBe(true);
     // Source: the stopping rule at the default tolerance (1e-4 since the speed work; it was 1e-6).
     expect(diag.convergence?.finalError).toBeLessThan(1e-4);
     expect(diag.minJacobianEigenvalue).toBeGreaterThanOrEqual(-1e-12);
-    expect(fitEntropic(source, target, { eps: 0.3 }).diagnostics().settings.eps).toBe(0.3);
+    expect(fitEntropic(source, target, { smoothing: 0.3 }).diagnostics().settings.smoothing).toBe(0.3);
   });
 
   test('the same inputs and seed give bit-identical maps, and inputs are not mutated', () => {
@@ -44,11 +45,11 @@ describe('fitEntropic', () => {
 
   test('zero-weight rows are ignored: the fit equals the fit without them', () => {
     const w = Float64Array.from({ length: 120 }, (_, i) => (i % 4 === 0 ? 0 : 1));
-    const weighted = fitEntropic({ ...source, weights: w }, target, { eps: 0.3 });
+    const weighted = fitEntropic({ ...source, weights: w }, target, { smoothing: 0.3 });
     const keep = Array.from({ length: 120 }, (_, i) => i).filter((i) => i % 4 !== 0);
     const data = new Float64Array(keep.length * 2);
     keep.forEach((i, r) => data.set(source.data.subarray(2 * i, 2 * i + 2), 2 * r));
-    const reduced = fitEntropic({ n: keep.length, d: 2, data, weights: null }, target, { eps: 0.3 });
+    const reduced = fitEntropic({ n: keep.length, d: 2, data, weights: null }, target, { smoothing: 0.3 });
     const probe = normalSample(5, 2, 9);
     const pa = weighted.apply(probe).data;
     const pb = reduced.apply(probe).data;
@@ -56,17 +57,17 @@ describe('fitEntropic', () => {
   });
 
   test('a fit that runs out of iterations warns not-converged and says what to do', () => {
-    const map = fitEntropic(source, target, { eps: 0.001, max_iterations: 5 });
+    const map = fitEntropic(source, target, { smoothing: 0.001, max_iterations: 5 });
     const w = map.diagnostics().warnings.find((x) => x.code === 'not-converged');
     expect(w).toBeDefined();
     expect(w?.action).toMatch(/max_iterations/);
-    expect(w?.action).toMatch(/eps/);
+    expect(w?.action).toMatch(/smoothing/);
     expect(map.diagnostics().convergence?.converged).toBe(false);
   });
 
   test('progress is reported with step, of and the marginal error as loss', () => {
     const seen: Progress[] = [];
-    fitEntropic(source, target, { eps: 0.3 }, { onProgress: (p) => seen.push(p) });
+    fitEntropic(source, target, { smoothing: 0.3 }, { onProgress: (p) => seen.push(p) });
     expect(seen.length).toBeGreaterThan(0);
     expect(seen[0].of).toBe(3000);
     expect(seen.every((p) => p.step >= 1 && p.elapsedMs >= 0)).toBe(true);

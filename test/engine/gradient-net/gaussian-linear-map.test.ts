@@ -40,7 +40,7 @@ describe('gaussianLinearMap', () => {
     const src = Array.from({ length: 100 }, () => [r.normal(), 3 * r.normal()]);
     const tgt = Array.from({ length: 120 }, () => { const u = r.normal(); return [u, u + 0.1 * r.normal()]; });
     const a = gaussianLinearMap(points(src), null, points(tgt), null);
-    const lin = fitLinear(sample(src), sample(tgt), { ridge: 0 }).toJSON().params as { matrix: number[] };
+    const lin = fitLinear(sample(src), sample(tgt), { ridge: 0, units: 'raw' }).toJSON().params as { matrix: number[] };
     expect(Array.from(a)).toEqual(lin.matrix); // Source: both use stats/moments.ts and linear/gaussian-transport.ts
   });
 

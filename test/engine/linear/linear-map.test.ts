@@ -1,3 +1,4 @@
+import { extrapolationWarning } from '../../../src/engine/outside';
 import { parseMapJSON } from '../../../src/engine/map-json';
 import { fitLinear } from '../../../src/engine/linear/fit';
 import { LinearMap } from '../../../src/engine/linear/linear-map';
@@ -55,21 +56,31 @@ describe('LinearMap: apply, invert, diagnostics and JSON', () => {
     expect(b.toJSON()).toEqual(a.toJSON());
   });
 
-  test('outside counts rows beyond the source range (apply) or target range (invert), and diagnostics warn', () => {
-    const map = fitLinear(s, t, { tails: 'clamp', ridge: 0 }, {}, { compare: false });
+  test('outside counts rows beyond the source range (apply) or target range (invert) per call; the warning says the affine map continues', () => {
+    const map = fitLinear(s, t, { ridge: 0 }, {}, { compare: false });
+    const before = JSON.stringify(map.diagnostics());
     const far = { n: 2, d: 3, data: Float64Array.from([0.5, 0.5, 0.5, 100, 0.5, 0.5]) };
-    expect(map.apply(far).outside).toBe(1);
+    const applied = map.apply(far);
+    expect(applied.outside).toBe(1);
     expect(map.invert(far).outside).toBe(2);
-    const d = map.diagnostics();
-    expect(d.applied).toEqual({ rows: 4, outside: 3 });
-    expect(d.warnings.map((w) => w.code)).toContain('extrapolation');
+    // Source: design choice (a map's report holds fit-time facts only, whatever was applied since)
+    expect(JSON.stringify(map.diagnostics())).toBe(before);
+    const w = extrapolationWarning(map, applied);
+    expect(w?.code).toBe('extrapolation');
+    expect(w?.message).toMatch(/^1 of 2 rows \(50\.0%\) lay outside the source range the linear map was fitted on; for them, the same affine map continues/);
+    expect(extrapolationWarning(map, map.apply({ n: 1, d: 3, data: Float64Array.from([0.5, 0.5, 0.5]) }))).toBeNull();
   });
 
-  test('the tails setting does not change a linear map', () => {
-    const a = fitLinear(s, t, { tails: 'clamp', ridge: 0 }, {}, { compare: false });
-    const b = fitLinear(s, t, { tails: 'linear', ridge: 0 }, {}, { compare: false });
-    const far = { n: 1, d: 3, data: Float64Array.from([100, -100, 5]) };
-    expect(a.apply(far).data).toEqual(b.apply(far).data);
+  test('a far value moves by the same affine rule: T(x) = m2 + A (x - m1) checked by hand at a point 100 units out', () => {
+    const map = fitLinear(s, t, { ridge: 0 }, {}, { compare: false });
+    const { mean1, mean2, matrix } = map.parameters;
+    const x = [100, -100, 5];
+    const got = Array.from(map.apply({ n: 1, d: 3, data: Float64Array.from(x) }).data);
+    for (let l = 0; l < 3; l++) {
+      let v = mean2[l];
+      for (let k = 0; k < 3; k++) v += matrix[l * 3 + k] * (x[k] - mean1[k]);
+      expect(got[l]).toBeCloseTo(v, 9); // Source: the map's formula T(x) = m2 + A (x - m1) (Knott & Smith 1984), evaluated separately
+    }
   });
 
   test('a wrong column count is refused by apply', () => {

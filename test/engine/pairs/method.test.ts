@@ -3,6 +3,7 @@ import type { Progress } from '../../../src/engine/map';
 import { fitMap, fitMapSync, prepareFit, restoreMap } from '../../../src/engine/methods';
 import { fitPairs, pairsMethod } from '../../../src/engine/pairs/method';
 import { column, sample, toRows } from '../../../src/engine/points';
+import { divideColumns, pooledColumnScales } from '../../../src/engine/stats/column-scales';
 
 
 function rng(seed: number): () => number {
@@ -14,11 +15,11 @@ function rng(seed: number): () => number {
 }
 
 describe('pairsMethod', () => {
-  test('pairsMethod is a joint method named pairs, without weights or settings of its own, needing 1 row', () => {
+  test('pairsMethod is a joint method named pairs, without weights, whose one setting is units, needing 1 row', () => {
     expect(pairsMethod.name).toBe('pairs');
     expect(pairsMethod.shape).toBe('joint');
     expect(pairsMethod.weights).toBe(false);
-    expect(pairsMethod.settings).toEqual([]);
+    expect(pairsMethod.settings.map((s) => s.name)).toEqual(['units']);
     expect(pairsMethod.minRows(1)).toBe(1);
     expect(pairsMethod.minRows(7)).toBe(1);
     expect(pairsMethod.summary.length).toBeGreaterThan(10);
@@ -39,7 +40,7 @@ describe('pairsMethod', () => {
 
   test('prepareFit rejects row weights for pairs, and fitPairs does too when called directly', () => {
     expect(() => prepareFit(pairsMethod, sample([1, 2], [1, 1]), sample([1, 2]), {})).toThrow(/does not take row weights/);
-    expect(() => fitPairs(sample([1, 2]), sample([1, 2], [1, 2]), { tails: 'clamp' })).toThrow(/does not take row weights/);
+    expect(() => fitPairs(sample([1, 2]), sample([1, 2], [1, 2]), { units: 'raw' })).toThrow(/does not take row weights/);
   });
 
   test('fitMap("pairs") reports progress and stops with kind cancelled when the signal turns true', async () => {
@@ -64,7 +65,7 @@ describe('pairsMethod', () => {
   });
 
   test('fitPairs records columns and dropped rows from the context, and its cost is the 1-D sorted W2^2 in one column', () => {
-    const m = fitPairs(sample([3, 1, 2]), sample([20, 40, 30]), { tails: 'clamp' }, { columns: ['v'], dropped: { source: 2, target: 0 } });
+    const m = fitPairs(sample([3, 1, 2]), sample([20, 40, 30]), { units: 'raw' }, { columns: ['v'], dropped: { source: 2, target: 0 } });
     const dg = m.diagnostics();
     expect(dg.columns).toEqual(['v']);
     expect(dg.dropped).toEqual({ source: 2, target: 0 });
@@ -75,7 +76,21 @@ describe('pairsMethod', () => {
   });
 
   test('apply on a new point is an error, never an interpolated value', () => {
-    const m = fitPairs(sample([0, 1]), sample([0, 1]), { tails: 'clamp' });
+    const m = fitPairs(sample([0, 1]), sample([0, 1]), { units: 'raw' });
     expect(() => m.apply(column([0.5]))).toThrow(RemapError);
+  });
+
+  test('units = standardised (the default) pairs the rows as the raw pairing of both samples divided by the pooled column spreads', () => {
+    // Source: the definition of fitting in standardised units (src/engine/stats/column-scales.ts). Two columns on scales
+    // 1 and 1000: in raw units the second column decides the pairing; standardised, both count.
+    const src = sample([[0, 0], [1, 1000], [2, 3000], [3, 500]]);
+    const tgt = sample([[3, 0], [2, 2000], [1, 2500], [0, 1000]]);
+    const scales = pooledColumnScales(src, tgt);
+    const divided = fitPairs(divideColumns(src, scales), divideColumns(tgt, scales), { units: 'raw' }).pairs();
+    expect(Array.from(fitPairs(src, tgt, {}).pairs())).toEqual(Array.from(divided));
+    const raw = fitPairs(src, tgt, { units: 'raw' });
+    expect(raw.diagnostics().settings.units).toBe('raw');
+    expect(Array.from(raw.pairs())).not.toEqual(Array.from(divided));
+    expect(fitPairs(src, tgt, {}).cost().note).toMatch(/standardised units/);
   });
 });

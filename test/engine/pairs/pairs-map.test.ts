@@ -5,7 +5,7 @@ import { fitPairs } from '../../../src/engine/pairs/method';
 import { PairsMap } from '../../../src/engine/pairs/pairs-map';
 import { column, points, sample, toRows, type Points } from '../../../src/engine/points';
 
-const settings = Object.freeze({ tails: 'clamp' });
+const settings = Object.freeze({ units: 'raw' });
 
 function header(n: number, d: number): MapHeader {
   return { method: 'pairs', d, settings, columns: null, n: { source: n, target: n }, dropped: { source: 0, target: 0 } };

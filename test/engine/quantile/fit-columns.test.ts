@@ -4,7 +4,7 @@ import { fitOneColumnMap, restoreOneColumnMap, type ColumnRecipe } from '../../.
 import { quantileColumn, quantileColumnFromParams } from '../../../src/engine/quantile/quantile-column';
 import { quantileMethod } from '../../../src/engine/quantile/quantile-method';
 
-const recipe: ColumnRecipe = { method: 'quantile', build: quantileColumn, restore: quantileColumnFromParams, warnTies: true };
+const recipe: ColumnRecipe = { method: 'quantile', build: (s, t, w) => quantileColumn(s, t, w), restore: quantileColumnFromParams, warnTies: true };
 
 describe('quantile/fit-columns', () => {
   const s = sample([1, 2, 2, 3]);
