@@ -32,7 +32,11 @@ export interface Tuning {
   /** Share of `steps` spent on regression onto the teacher (the rest refines on the Sinkhorn divergence). */
   readonly regressionShare: number;
   readonly regressionLearningRate: number;
-  /** Refinement on the Sinkhorn divergence after the regression (false: regression only). */
+  /**
+   * Refinement on the Sinkhorn divergence after the regression (false: regression only). Off: on the
+   * tune half of the zoo (d = 8, 20 s) no refinement checkpoint was kept over the regression's, and
+   * its time was better spent on regression steps.
+   */
   readonly refine: boolean;
   readonly refineLearningRate: number;
   /** eps of the refinement's Sinkhorn divergence for the cost |x - y|^2, as a multiple of the teacher's eps. */
