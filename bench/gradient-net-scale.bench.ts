@@ -24,7 +24,8 @@ const load = () => os.loadavg().map((l) => l.toFixed(1)).join(' ');
 async function main(): Promise<void> {
   let t0 = performance.now();
   const pair = zooPair(family, d, n, n, 1);
-  console.log(`gradient-net at scale: family ${family}, n = m = ${n}, d = ${d}; data drawn in ${((performance.now() - t0) / 1000).toFixed(1)} s   [load ${load()}]`);
+  const drawn = ((performance.now() - t0) / 1000).toFixed(1);
+  console.log(`gradient-net at scale: family ${family}, n = m = ${n}, d = ${d}; data drawn in ${drawn} s   [load ${load()}]`);
   const settings = resolveSettings('gradient-net', settingSpecs(gradientNetMethod), { seed: 7, ...extra });
   t0 = performance.now();
   const map = await gradientNetMethod.fit({ ...pair.source, weights: null }, { ...pair.target, weights: null }, settings, {});

@@ -26,7 +26,8 @@ const reference = !process.argv.includes('--no-reference');
 const load = () => os.loadavg()[0].toFixed(1);
 
 async function main(): Promise<void> {
-  console.log(`gradient-net on the zoo, ${half} half, n = m = ${n}, budget ${budget} s, settings ${JSON.stringify(settings)}, tuning ${JSON.stringify(tuning)}`);
+  console.log(`gradient-net on the zoo, ${half} half, n = m = ${n}, budget ${budget} s`);
+  console.log(`settings ${JSON.stringify(settings)}, tuning ${JSON.stringify(tuning)}`);
   for (const d of dims) {
     console.log(`\nd = ${d}\nfamily     linear %  entropic %  (s)    gradient-net %  (s)   vs linear  vs entropic  load  kept / warnings`);
     for (const f of families) {
@@ -62,8 +63,9 @@ async function main(): Promise<void> {
       const gn = l2uvp(gm.apply(test), exact, variance);
       const dg = gm.diagnostics();
       console.log(
-        `${f.padEnd(11)}${lin.toFixed(2).padStart(7)}  ${ent.toFixed(2).padStart(9)}  ${entSecs.toFixed(1).padStart(5)}  ${gn.toFixed(2).padStart(12)}  ${secs.toFixed(1).padStart(5)}` +
-          `  ${(lin / gn).toFixed(1).padStart(7)}x  ${(gn / ent).toFixed(2).padStart(9)}x  ${load().padStart(5)}  step ${dg.convergence?.iterations} / ${dg.warnings.map((w) => w.code).join(', ')}`,
+        `${f.padEnd(11)}${lin.toFixed(2).padStart(7)}  ${ent.toFixed(2).padStart(9)}  ${entSecs.toFixed(1).padStart(5)}` +
+          `  ${gn.toFixed(2).padStart(12)}  ${secs.toFixed(1).padStart(5)}  ${(lin / gn).toFixed(1).padStart(7)}x  ${(gn / ent).toFixed(2).padStart(9)}x` +
+          `  ${load().padStart(5)}  step ${dg.convergence?.iterations} / ${dg.warnings.map((w) => w.code).join(', ')}`,
       );
     }
   }

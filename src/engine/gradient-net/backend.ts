@@ -25,7 +25,11 @@ export interface BackendOptions {
 }
 
 /** The options in force; `pathChanged` tells the activation to pass a new path to the wasm backend. */
-export const backendOptions: { wasmPath: string | undefined; prefer: BackendName; pathChanged: boolean } = { wasmPath: undefined, prefer: 'wasm', pathChanged: false };
+export const backendOptions: { wasmPath: string | undefined; prefer: BackendName; pathChanged: boolean } = {
+  wasmPath: undefined,
+  prefer: 'wasm',
+  pathChanged: false,
+};
 let queue: Promise<unknown> = Promise.resolve();
 
 /**

@@ -42,7 +42,10 @@ export function entropicTeacher(source: TrainData, target: TrainData, eps: numbe
   const xs = supportOf(subsample(source, rng));
   const ys = supportOf(subsample(target, rng));
   const control = new SolveControl({ signal: ctx.signal }, TEACHER_MAX_ITERATIONS);
-  const r = solveSinkhorn({ x: xs.points, y: ys.points, logA: xs.logMass, logB: ys.logMass }, { eps, tolerance: TEACHER_TOLERANCE, maxIterations: TEACHER_MAX_ITERATIONS, control });
+  const r = solveSinkhorn(
+    { x: xs.points, y: ys.points, logA: xs.logMass, logB: ys.logMass },
+    { eps, tolerance: TEACHER_TOLERANCE, maxIterations: TEACHER_MAX_ITERATIONS, control },
+  );
   const y = ys.points;
   const logB = ys.logMass;
   return {

@@ -45,7 +45,15 @@ export const JACOBIAN_ROWS = 20_000;
  * assess.ts), so they are measured on the same rows as every other method.
  * Cost O(n hidden d + min(n, 20000) (hidden d^2 + d^3) + 400^2 (d + 60)).
  */
-export function fitRecordOf(source: Sample, target: Sample, params: NetworkParams, sf: Frame, tf: Frame, story: FitStory, baseWarnings: readonly Warning[]): FitRecord {
+export function fitRecordOf(
+  source: Sample,
+  target: Sample,
+  params: NetworkParams,
+  sf: Frame,
+  tf: Frame,
+  story: FitStory,
+  baseWarnings: readonly Warning[],
+): FitRecord {
   const { n, d, data, weights } = source;
   const net = new Float64Network(params);
   const mapped = new Float64Array(n * d);
@@ -115,15 +123,24 @@ export function costOf(source: Sample, target: Sample, mapped: Points, displacem
     w2Squared: displacement,
     w2: root,
     note:
-      `Mean squared displacement |T(x) - x|^2 over the weighted source rows (data units): the squared W2 from the source to the mapped source, not to the target. ` +
-      `The mapped source is still about ${fmt(r2)} (squared W2, debiased Sinkhorn estimate on ${REMAINING_ROWS} rows per side) from the target, so the squared W2 from source to target lies in about [${fmt(lower)}, ${fmt(upper)}]` +
+      'Mean squared displacement |T(x) - x|^2 over the weighted source rows (data units): ' +
+      'the squared W2 from the source to the mapped source, not to the target. ' +
+      `The mapped source is still about ${fmt(r2)} (squared W2, debiased Sinkhorn estimate on ${REMAINING_ROWS} rows per side) from the target, ` +
+      `so the squared W2 from source to target lies in about [${fmt(lower)}, ${fmt(upper)}]` +
       (Number.isFinite(gelbrich) ? `; the Gaussian lower bound from means and covariances (Gelbrich) is ${fmt(gelbrich)}` : '') +
       (below ? ', above this figure: the map has not carried the source all the way to the target.' : '.'),
   };
 }
 
 /** The debiased Sinkhorn divergence between seeded subsamples of the mapped source and the target, in data units. */
-function remainingDistance(mapped: Points, mappedWeights: Float64Array | null, target: Sample, covT: ArrayLike<number>, covS: ArrayLike<number>, d: number): number {
+function remainingDistance(
+  mapped: Points,
+  mappedWeights: Float64Array | null,
+  target: Sample,
+  covT: ArrayLike<number>,
+  covS: ArrayLike<number>,
+  d: number,
+): number {
   let v = 0;
   for (let k = 0; k < d; k++) v += (covT[k * d + k] + covS[k * d + k]) / 2;
   const scale = Math.sqrt(v / d) || 1;
@@ -177,11 +194,17 @@ function draw(p: Points, weights: Float64Array | null, rng: Random, scale: numbe
 function convergenceOf(story: FitStory): Convergence {
   const ph = story.phases;
   const teacher = story.teacher
-    ? `the entropic teacher (eps ${fmt(story.teacher.eps)} for |x - y|^2 / 2, ${story.teacher.rows.source} x ${story.teacher.rows.target} rows, ${story.teacher.iterations} Sinkhorn iterations${story.teacher.converged ? '' : ', not converged'}); `
+    ? `the entropic teacher (eps ${fmt(story.teacher.eps)} for |x - y|^2 / 2, ${story.teacher.rows.source} x ${story.teacher.rows.target} rows, ` +
+      `${story.teacher.iterations} Sinkhorn iterations${story.teacher.converged ? '' : ', not converged'}); `
     : '';
   const start = Number.isFinite(story.startScore) ? story.startScore : 0;
   if (ph.length === 0) {
-    return { iterations: 0, finalError: start, converged: false, criterion: `no training (steps = 0): the Gaussian linear map (the linear method's map) is returned; final error: its ${story.judge} ${fmt(start)}.` };
+    return {
+      iterations: 0,
+      finalError: start,
+      converged: false,
+      criterion: `no training (steps = 0): the Gaussian linear map (the linear method's map) is returned; final error: its ${story.judge} ${fmt(start)}.`,
+    };
   }
   let keptPhase = -1;
   for (let i = ph.length - 1; i >= 0; i--) {
@@ -199,7 +222,9 @@ function convergenceOf(story: FitStory): Convergence {
       iterations: 0,
       finalError: start,
       converged: false,
-      criterion: `${teacher}${how} (${total} steps ${where}); no checkpoint beat the Gaussian linear map on the ${story.judge} (${fmt(start)}, the final error), so that map is returned.`,
+      criterion:
+        `${teacher}${how} (${total} steps ${where}); ` +
+        `no checkpoint beat the Gaussian linear map on the ${story.judge} (${fmt(start)}, the final error), so that map is returned.`,
     };
   }
   const k = ph[keptPhase];
@@ -211,7 +236,8 @@ function convergenceOf(story: FitStory): Convergence {
     converged: stoppedByItself,
     criterion:
       `${teacher}${how} (${total} steps ${where}). Returned: the weights of step ${k.stepOffset + r.keptStep} (${k.name}); final error: their ` +
-      `${story.judge} ${fmt(r.keptScore)} against ${fmt(start)} for the Gaussian linear map (smoothed training loss, ${k.objective}, ${fmt(r.keptLoss)}; standardised units).`,
+      `${story.judge} ${fmt(r.keptScore)} against ${fmt(start)} for the Gaussian linear map ` +
+      `(smoothed training loss, ${k.objective}, ${fmt(r.keptLoss)}; standardised units).`,
   };
 }
 
@@ -225,8 +251,12 @@ function warningsOf(story: FitStory): Warning[] {
   if (!gained) {
     out.push({
       code: 'kept-linear-start',
-      message: `No training step beat the linear (Gaussian) map on the held-out rows (${total} steps), so the map returned is that linear map, not a trained network.`,
-      action: 'Use the linear method for this data, or raise time_budget and steps, or try start=entropic / a smaller smoothing; compare the energy distance after with the linear map\'s.',
+      message:
+        `No training step beat the linear (Gaussian) map on the held-out rows (${total} steps), ` +
+        'so the map returned is that linear map, not a trained network.',
+      action:
+        'Use the linear method for this data, or raise time_budget and steps, or try start=entropic / a smaller smoothing; ' +
+        "compare the energy distance after with the linear map's.",
     });
   }
   if (last.stopped === 'time-budget') {

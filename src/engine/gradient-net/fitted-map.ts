@@ -94,7 +94,9 @@ export class GradientNetMap extends BaseMap {
       const r = newtonInverse(this.net, row, x);
       if (!r.converged) {
         throw new RemapError(
-          `invert (gradient-net): Newton's method did not converge for row ${i + 1} (residual ${r.residual.toExponential(2)} after ${r.iterations} iterations); check that the values are of the target's size, or refit with more steps.`,
+          `invert (gradient-net): Newton's method did not converge for row ${i + 1} ` +
+            `(residual ${r.residual.toExponential(2)} after ${r.iterations} iterations); ` +
+            "check that the values are of the target's size, or refit with more steps.",
           'num',
         );
       }
@@ -187,7 +189,8 @@ function numbers(v: unknown, name: string, fn: string): Float64Array {
   const out = new Float64Array(v.length);
   for (let i = 0; i < v.length; i++) {
     const x = v[i];
-    if (typeof x !== 'number' || !Number.isFinite(x)) throw new RemapError(`${fn}: the saved gradient-net parameter ${name}[${i}] is ${String(x)}, not a finite number.`);
+    if (typeof x !== 'number' || !Number.isFinite(x))
+      throw new RemapError(`${fn}: the saved gradient-net parameter ${name}[${i}] is ${String(x)}, not a finite number.`);
     out[i] = x;
   }
   return out;
@@ -201,7 +204,8 @@ function frameOf(v: unknown, d: number, name: string, fn: string): Frame {
   const hi = numbers(o.hi, `${name}.hi`, fn);
   // Maps saved before per-column scales hold one number for all columns.
   const scale = typeof o.scale === 'number' ? new Float64Array(d).fill(o.scale) : numbers(o.scale, `${name}.scale`, fn);
-  if (mean.length !== d || lo.length !== d || hi.length !== d || scale.length !== d) throw new RemapError(`${fn}: the saved ${name} frame does not have ${d} columns; save the map again.`);
+  if (mean.length !== d || lo.length !== d || hi.length !== d || scale.length !== d)
+    throw new RemapError(`${fn}: the saved ${name} frame does not have ${d} columns; save the map again.`);
   for (let k = 0; k < d; k++) {
     if (!(scale[k] > 0)) throw new RemapError(`${fn}: the saved ${name} scale of column ${k + 1} is ${scale[k]}; it must be a positive number.`);
   }

@@ -47,7 +47,14 @@ export interface Tuning {
   readonly keepLast?: boolean;
 }
 
-export const DEFAULT_TUNING: Tuning = { regressionShare: 1, regressionLearningRate: 0.01, refine: false, refineLearningRate: 0.002, refineEpsFactor: 2, smoothingFactor: 0.125 };
+export const DEFAULT_TUNING: Tuning = {
+  regressionShare: 1,
+  regressionLearningRate: 0.01,
+  refine: false,
+  refineLearningRate: 0.002,
+  refineEpsFactor: 2,
+  smoothingFactor: 0.125,
+};
 
 /**
  * Fits a gradient-net map:
@@ -72,7 +79,13 @@ export const DEFAULT_TUNING: Tuning = { regressionShare: 1, regressionLearningRa
  * @throws RemapError (kind 'cancelled') when ctx.signal is aborted; (kind 'num') if training diverges.
  * @example await fitGradientNet(sample(xRows), sample(yRows), settings, {}) // a GradientNetMap
  */
-export async function fitGradientNet(source: Sample, target: Sample, settings: Settings, ctx: FitContext = {}, tuning: Tuning = DEFAULT_TUNING): Promise<GradientNetMap> {
+export async function fitGradientNet(
+  source: Sample,
+  target: Sample,
+  settings: Settings,
+  ctx: FitContext = {},
+  tuning: Tuning = DEFAULT_TUNING,
+): Promise<GradientNetMap> {
   const t0 = Date.now();
   const d = source.d;
   const own = settingsOf(GRADIENT_NET_SETTINGS, settings, 'gradient-net');
@@ -112,13 +125,33 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
     let kept: { params: NetworkParams; score: number } = { params: gaussian, score: NaN };
     let done = 0;
     let scoreOf: (p: NetworkParams) => number = (p) => judge.of(p);
-    const run = async (name: string, rows: TrainData, objective: SinkhornObjective | RegressionObjective, count: number, lr: number, from: NetworkParams): Promise<TrainResult> => {
+    const run = async (
+      name: string,
+      rows: TrainData,
+      objective: SinkhornObjective | RegressionObjective,
+      count: number,
+      lr: number,
+      from: NetworkParams,
+    ): Promise<TrainResult> => {
       let tick = 0;
       const score = tuning.keepLast ? () => -++tick : scoreOf;
-      const checkpoints: Checkpoints = { score, every: CHECK_EVERY, patience: CHECK_PATIENCE, start: tuning.keepLast ? { params: kept.params, score: 0 } : kept };
+      const checkpoints: Checkpoints = {
+        score,
+        every: CHECK_EVERY,
+        patience: CHECK_PATIENCE,
+        start: tuning.keepLast ? { params: kept.params, score: 0 } : kept,
+      };
       const offset = done;
       const phaseCtx: FitContext = { ...ctx, onProgress: ctx.onProgress ? (p) => ctx.onProgress!({ ...p, step: p.step + offset, of: steps }) : undefined };
-      const opts = { steps: count, learningRate: lr, batch: own.batch, seed: seed + story.phases.length, timeBudgetMs: Math.max(0, left()), backend: own.backend, objective };
+      const opts = {
+        steps: count,
+        learningRate: lr,
+        batch: own.batch,
+        seed: seed + story.phases.length,
+        timeBudgetMs: Math.max(0, left()),
+        backend: own.backend,
+        objective,
+      };
       const r = await trainGradientNet(rows, from, opts, phaseCtx, checkpoints);
       story.phases.push({ name, objective: objective.describe, result: r, stepOffset: offset });
       done += r.steps;
@@ -140,14 +173,28 @@ export async function fitGradientNet(source: Sample, target: Sample, settings: S
       const r = await run('regression onto the entropic map', reg.rows, new RegressionObjective(reg.targetsOf), count, tuning.regressionLearningRate, start);
       if (tuning.refine && done < steps && left() > 0 && r.stopped !== 'time-budget') {
         const eps = 2 * teacher.eps * tuning.refineEpsFactor;
-        await run('refinement on the Sinkhorn divergence', trainX, new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372), steps - done, tuning.refineLearningRate, kept.params);
+        await run(
+          'refinement on the Sinkhorn divergence',
+          trainX,
+          new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372),
+          steps - done,
+          tuning.refineLearningRate,
+          kept.params,
+        );
       }
     } else {
       kept = { params: gaussian, score: scoreOf(gaussian) };
       story.startScore = kept.score;
       story.judge = 'held-out energy distance';
       const eps = own.smoothing > 0 ? 2 * own.smoothing : gaussianStartEps(d);
-      await run('Sinkhorn divergence from the Gaussian start', trainX, new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372), steps, own.learning_rate, start);
+      await run(
+        'Sinkhorn divergence from the Gaussian start',
+        trainX,
+        new SinkhornObjective(trainY, own.batch, eps, seed ^ 0x3c6ef372),
+        steps,
+        own.learning_rate,
+        start,
+      );
     }
     params = kept.params;
   }

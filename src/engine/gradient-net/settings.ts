@@ -31,11 +31,19 @@ export const GRADIENT_NET_SETTINGS = [
     default: 'entropic',
     choices: ['entropic', 'gaussian'],
     describe:
-      'entropic (default): first fit the network to the entropic map of up to 4,000 rows per side, then refine it on all rows; gaussian: start from the linear (Gaussian) map and train on the Sinkhorn divergence only.',
+      'entropic (default): fit the network by regression to the entropic map of up to 4,000 rows per side, keeping the checkpoint closest to it ' +
+      'on held-out rows; gaussian: start from the linear (Gaussian) map and train on the Sinkhorn divergence only.',
   },
   { name: 'steps', type: 'integer', default: 1500, min: 0, max: 1_000_000, describe: 'Most training steps in all (0 = keep the Gaussian warm start).' },
   { name: 'learning_rate', type: 'number', default: 0.01, min: 0, minExclusive: true, max: 1, describe: 'Adam step size.' },
-  { name: 'batch', type: 'integer', default: 256, min: 0, max: 100_000, describe: 'Rows drawn from each sample per step (0 = all rows; the Sinkhorn part costs its square).' },
+  {
+    name: 'batch',
+    type: 'integer',
+    default: 256,
+    min: 0,
+    max: 100_000,
+    describe: 'Rows drawn from each sample per step (0 = all rows; the Sinkhorn part costs its square).',
+  },
   {
     name: 'smoothing',
     type: 'number',
@@ -43,10 +51,25 @@ export const GRADIENT_NET_SETTINGS = [
     min: 0,
     max: 100,
     describe:
-      'Entropic regularisation epsilon of the teacher map, in squared standardised units (the cost |x - y|^2 / 2, as in the entropic method); 0 = automatic (the entropic rule on the rows used); the report shows the value used.',
+      'Entropic regularisation epsilon of the teacher map, in squared standardised units (the cost |x - y|^2 / 2, as in the entropic method); ' +
+      '0 = automatic (0.125 x mean column variance x rows^(-2/(columns + 4))); the report shows the value used.',
   },
   { name: 'seed', type: 'integer', default: 0, min: 0, max: 4294967295, describe: 'Seed of the initial weights, the row subsamples and the batch order.' },
-  { name: 'time_budget', type: 'number', default: 60, min: 0, minExclusive: true, max: 86400, describe: 'Seconds of fitting at most; the fit stops there with a warning.' },
-  { name: 'backend', type: 'choice', default: 'wasm', choices: ['wasm', 'cpu'], describe: 'Tensor backend: wasm (fast, falls back to cpu if it cannot load) or cpu.' },
+  {
+    name: 'time_budget',
+    type: 'number',
+    default: 60,
+    min: 0,
+    minExclusive: true,
+    max: 86400,
+    describe: 'Seconds of fitting at most; the fit stops there with a warning.',
+  },
+  {
+    name: 'backend',
+    type: 'choice',
+    default: 'wasm',
+    choices: ['wasm', 'cpu'],
+    describe: 'Tensor backend: wasm (fast, falls back to cpu if it cannot load) or cpu.',
+  },
   UNITS_SETTING,
 ] as const satisfies readonly SettingSpec[];

@@ -95,7 +95,13 @@ const LR_CUT_FACTOR = 0.3;
  * @throws RemapError(kind 'cancelled') when ctx.signal.aborted becomes true;
  *   RemapError(kind 'num') if the loss becomes non-finite.
  */
-export function trainGradientNet(source: TrainData, start: NetworkParams, opts: TrainOptions, ctx: FitContext = {}, checkpoints: Checkpoints | null = null): Promise<TrainResult> {
+export function trainGradientNet(
+  source: TrainData,
+  start: NetworkParams,
+  opts: TrainOptions,
+  ctx: FitContext = {},
+  checkpoints: Checkpoints | null = null,
+): Promise<TrainResult> {
   return exclusive(() => train(source, start, opts, ctx, checkpoints));
 }
 
@@ -104,7 +110,19 @@ async function train(source: TrainData, start: NetworkParams, opts: TrainOptions
     // Nothing to train: no backend, no tensors; the start is returned exactly (float64, no float32 rounding).
     const kept = checkpoints ? checkpoints.start : { params: start, score: NaN };
     ctx.onProgress?.({ step: 0, of: 0, loss: NaN, elapsedMs: 0, message: 'stopped: steps' });
-    return { params: kept.params, steps: 0, keptStep: 0, keptScore: kept.score, startScore: kept.score, keptLoss: NaN, finalLoss: NaN, stopped: 'steps', elapsedMs: 0, backend: opts.backend, backendFallback: null };
+    return {
+      params: kept.params,
+      steps: 0,
+      keptStep: 0,
+      keptScore: kept.score,
+      startScore: kept.score,
+      keptLoss: NaN,
+      finalLoss: NaN,
+      stopped: 'steps',
+      elapsedMs: 0,
+      backend: opts.backend,
+      backendFallback: null,
+    };
   }
   const { backend, fallback } = await activateBackend(opts.backend);
   const t0 = Date.now();
@@ -158,7 +176,10 @@ async function train(source: TrainData, start: NetworkParams, opts: TrainOptions
       }
       const { value, gradient } = opts.objective.evaluate(mapped, ix);
       if (!Number.isFinite(value)) {
-        throw new RemapError(`fit (gradient-net): the training loss became ${value} at step ${step + 1}; lower learning_rate (now ${opts.learningRate}) or rescale the data.`, 'num');
+        throw new RemapError(
+          `fit (gradient-net): the training loss became ${value} at step ${step + 1}; lower learning_rate (now ${opts.learningRate}) or rescale the data.`,
+          'num',
+        );
       }
       tf.tidy(() => {
         const xb = fullXTensor ?? tf.tensor2d(gatherRows(source.data, d, ix), [ix.length, d]);
@@ -206,7 +227,19 @@ async function train(source: TrainData, start: NetworkParams, opts: TrainOptions
     const elapsedMs = Date.now() - t0;
     ctx.onProgress?.({ step, of: opts.steps, loss: plateau.smoothed, elapsedMs, message: `stopped: ${stopped}` });
     const startScore = checkpoints ? checkpoints.start.score : NaN;
-    return { params: kept.params, steps: step, keptStep, keptScore: kept.score, startScore, keptLoss, finalLoss: plateau.smoothed, stopped, elapsedMs, backend, backendFallback: fallback };
+    return {
+      params: kept.params,
+      steps: step,
+      keptStep,
+      keptScore: kept.score,
+      startScore,
+      keptLoss,
+      finalLoss: plateau.smoothed,
+      stopped,
+      elapsedMs,
+      backend,
+      backendFallback: fallback,
+    };
   } finally {
     optimizer.dispose();
     net.dispose();

@@ -8,8 +8,28 @@ describe('fitRecordOf', () => {
   const src = { n: 4, d: 1, data: Float64Array.of(0, 1, 2, 3), weights: null };
   const tgt = { n: 4, d: 1, data: Float64Array.of(3, 4, 5, 6), weights: null };
   const frame = { mean: Float64Array.of(0), scale: Float64Array.of(1), lo: Float64Array.of(0), hi: Float64Array.of(3) };
-  const result: TrainResult = { params: p, steps: 50, keptStep: 30, keptScore: 0.1, startScore: 0.2, keptLoss: 0.05, finalLoss: 0.04, stopped: 'time-budget', elapsedMs: 1, backend: 'cpu', backendFallback: null };
-  const story = (r: TrainResult): FitStory => ({ steps: 100, timeBudget: 1, start: 'gaussian', teacher: null, phases: [{ name: 'phase', objective: 'loss', result: r, stepOffset: 0 }], startScore: 0.2, judge: 'held-out energy distance' });
+  const result: TrainResult = {
+    params: p,
+    steps: 50,
+    keptStep: 30,
+    keptScore: 0.1,
+    startScore: 0.2,
+    keptLoss: 0.05,
+    finalLoss: 0.04,
+    stopped: 'time-budget',
+    elapsedMs: 1,
+    backend: 'cpu',
+    backendFallback: null,
+  };
+  const story = (r: TrainResult): FitStory => ({
+    steps: 100,
+    timeBudget: 1,
+    start: 'gaussian',
+    teacher: null,
+    phases: [{ name: 'phase', objective: 'loss', result: r, stepOffset: 0 }],
+    startScore: 0.2,
+    judge: 'held-out energy distance',
+  });
 
   test('cost is the mean squared displacement, with the Gaussian bound beside it; warnings follow the stop reason', () => {
     const rec = fitRecordOf(src, tgt, p, frame, frame, story(result), []);

@@ -32,7 +32,13 @@ const tensorflow = (s: Set<string>) => [...s].filter((p) => p.startsWith('@tenso
 describe('TensorFlow.js is loaded only when a gradient-net fit trains', () => {
   test('the engine (every method, map JSON, the gradient-net map and its backend options) imports no TensorFlow.js package statically', () => {
     // Source: design choice -- the worksheet bundle must not pull TensorFlow.js until a gradient-net fit starts.
-    for (const entry of ['engine/index.ts', 'engine/methods.ts', 'engine/gradient-net/method.ts', 'engine/gradient-net/fitted-map.ts', 'engine/gradient-net/backend.ts']) {
+    for (const entry of [
+      'engine/index.ts',
+      'engine/methods.ts',
+      'engine/gradient-net/method.ts',
+      'engine/gradient-net/fitted-map.ts',
+      'engine/gradient-net/backend.ts',
+    ]) {
       expect({ entry, packages: tensorflow(staticPackages(path.join(src, entry))) }).toEqual({ entry, packages: [] });
     }
   });

@@ -5,7 +5,19 @@ describe('GRADIENT_NET_SETTINGS', () => {
   test('defaults: automatic width, 1 layer, entropic start, 1,500 steps, batch 256, 60 s, wasm, automatic smoothing, standardised units', () => {
     const s = resolveSettings('gradient-net', GRADIENT_NET_SETTINGS, {});
     // Source: design choice (settings.ts)
-    expect(s).toMatchObject({ hidden: 0, layers: 1, start: 'entropic', steps: 1500, batch: 256, time_budget: 60, backend: 'wasm', smoothing: 0, seed: 0, units: 'standardised', tails: 'clamp' });
+    expect(s).toMatchObject({
+      hidden: 0,
+      layers: 1,
+      start: 'entropic',
+      steps: 1500,
+      batch: 256,
+      time_budget: 60,
+      backend: 'wasm',
+      smoothing: 0,
+      seed: 0,
+      units: 'standardised',
+      tails: 'clamp',
+    });
     expect(Object.keys(s)).not.toContain('blur');
   });
 

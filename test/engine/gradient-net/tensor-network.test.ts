@@ -14,7 +14,8 @@ describe.each(BACKENDS)('on the %s backend', (backend) => {
       net.dispose();
       expect(tf.memory().numTensors).toBe(before);
       for (const k of ['w', 'b', 'c', 'v', 'beta'] as const) {
-        for (let i = 0; i < p[k].length; i++) expect(Math.abs(back[k][i] - p[k][i])).toBeLessThan(1e-6 * (1 + Math.abs(p[k][i]))); // Source: float32 epsilon 1.2e-7
+        // Source: float32 epsilon 1.2e-7
+        for (let i = 0; i < p[k].length; i++) expect(Math.abs(back[k][i] - p[k][i])).toBeLessThan(1e-6 * (1 + Math.abs(p[k][i])));
       }
       expect(back.alpha).toBeCloseTo(p.alpha, 6);
     });
