@@ -28,7 +28,7 @@ import { gradientNetMethod } from '../src/engine/gradient-net/method';
 import { Random } from '../src/engine/stats/random';
 import { sinkhornDivergenceAt, sinkhornPotentials } from '../src/engine/gradient-net/sinkhorn-divergence';
 import { TensorNetwork } from '../src/engine/gradient-net/tensor-network';
-import { COMMON_SETTINGS, resolveSettings } from '../src/engine/settings';
+import { resolveSettings } from '../src/engine/settings';
 import type { Points } from '../src/engine/points';
 import { knownTruth, totalVariance, l2uvp } from './truth';
 
@@ -141,7 +141,7 @@ async function accuracy(): Promise<void> {
   console.log(`\n3. Accuracy on bench/truth.ts, n = 4,000 per sample, defaults (wasm), 4,000 fresh test rows`);
   console.log('d | warm start L2-UVP % | trained L2-UVP % | cos | steps | stop | wall s | load');
   const settingsOf = (raw: Record<string, unknown>) =>
-    resolveSettings('gradient-net', [...COMMON_SETTINGS, ...gradientNetMethod.settings], { tails: 'linear', ...raw });
+    resolveSettings('gradient-net', gradientNetMethod.settings, { tails: 'linear', ...raw });
   for (const d of quick ? [2] : [2, 4, 8]) {
     const truth = knownTruth(d, 1);
     const n = 4000;

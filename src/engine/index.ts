@@ -48,7 +48,7 @@ export { sinkhornDivergence } from './entropic/sinkhorn-divergence';
 export { barycentricMap } from './entropic/barycentric-map';
 export { rowSquaredNorms, squaredDistances, squaredDistancesRow } from './stats/sq-distances';
 
-export { gradientNetMethod, fitGradientNet, autoBlur, SINKHORN_ITERATIONS } from './gradient-net/method';
+export { gradientNetMethod, fitGradientNet } from './gradient-net/method';
 export { GradientNetMap, type Frame } from './gradient-net/fitted-map';
 export { configureBackend, type BackendOptions, type BackendName } from './gradient-net/backend';
 export { GRADIENT_NET_SETTINGS } from './gradient-net/settings';

@@ -95,7 +95,8 @@ export type WarningCode =
   | 'time-budget'
   | 'unequal-sizes'
   | 'different-rows'
-  | 'compacted';
+  | 'compacted'
+  | 'kept-linear-start';
 
 /** A plain-language caution with what to do about it. */
 export interface Warning {

@@ -1,6 +1,12 @@
-import * as tf from '@tensorflow/tfjs';
-import { setWasmPaths } from '@tensorflow/tfjs-backend-wasm';
 import { RemapError } from '../errors';
+
+/**
+ * Where the tensor backend comes from, without loading TensorFlow.js: this file
+ * holds the options and the one-fit-at-a-time queue, so the rest of the engine
+ * (and the worksheet bundle) can import it cheaply. The backend itself is
+ * switched on in activate-backend.ts, which the trainer loads only when a
+ * gradient-net fit starts.
+ */
 
 /** Tensor backends the gradient-net method trains on. */
 export type BackendName = 'wasm' | 'cpu';
@@ -18,15 +24,19 @@ export interface BackendOptions {
   readonly prefer?: BackendName;
 }
 
-let options: { wasmPath: string | undefined; prefer: BackendName } = { wasmPath: undefined, prefer: 'wasm' };
-let wasmFailed: string | null = null;
+/** The options in force; `pathChanged` tells the activation to pass a new path to the wasm backend. */
+export const backendOptions: { wasmPath: string | undefined; prefer: BackendName; pathChanged: boolean } = {
+  wasmPath: undefined,
+  prefer: 'wasm',
+  pathChanged: false,
+};
 let queue: Promise<unknown> = Promise.resolve();
 
 /**
  * Sets where the wasm backend's binaries live and which backend fits prefer.
  * Call once at start-up, before the first fit (the wasm binaries load once per
  * page or process; a later path change applies only if wasm has not loaded yet).
- * O(1).
+ * Loads nothing. O(1).
  * @throws RemapError for an empty path or an unknown backend name.
  * @example configureBackend({ wasmPath: 'wasm/' }) // the add-in's setting
  */
@@ -37,36 +47,11 @@ export function configureBackend(opts: BackendOptions = {}): void {
   if (opts.prefer !== undefined && opts.prefer !== 'wasm' && opts.prefer !== 'cpu') {
     throw new RemapError(`configureBackend: prefer must be "wasm" or "cpu", not "${String(opts.prefer)}".`);
   }
-  options = { wasmPath: opts.wasmPath ?? options.wasmPath, prefer: opts.prefer ?? options.prefer };
+  backendOptions.prefer = opts.prefer ?? backendOptions.prefer;
   if (opts.wasmPath !== undefined) {
-    setWasmPaths(opts.wasmPath);
-    wasmFailed = null;
+    backendOptions.wasmPath = opts.wasmPath;
+    backendOptions.pathChanged = true;
   }
-}
-
-/**
- * Switches tfjs to the requested backend, falling back to 'cpu' when the wasm
- * binaries cannot be loaded (the reason is returned so the fit can say so).
- * tfjs has one global backend, so fits are run one at a time through `exclusive`.
- * @returns the backend in use and, on fallback, why wasm was not used.
- */
-export async function activateBackend(wanted: BackendName): Promise<{ backend: BackendName; fallback: string | null }> {
-  const name: BackendName = options.prefer === 'cpu' ? 'cpu' : wanted;
-  if (name === 'wasm' && wasmFailed === null) {
-    let ok = false;
-    try {
-      ok = await tf.setBackend('wasm');
-      await tf.ready();
-    } catch (e) {
-      wasmFailed = e instanceof Error ? e.message : String(e);
-    }
-    if (ok) return { backend: 'wasm', fallback: null };
-    wasmFailed = wasmFailed ?? 'the wasm backend did not initialise';
-  }
-  const ok = await tf.setBackend('cpu');
-  await tf.ready();
-  if (!ok) throw new RemapError('gradient-net: neither the wasm nor the cpu tensor backend could start; reload the add-in.', 'num');
-  return { backend: 'cpu', fallback: name === 'wasm' ? wasmFailed : null };
 }
 
 /**

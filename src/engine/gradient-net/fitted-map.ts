@@ -6,19 +6,20 @@ import { Float64Network } from './float64-network';
 import { checkNetworkParams, type NetworkParams } from './network-params';
 import { newtonInverse } from './newton-inverse';
 
-/** Where a sample sat: centre, the one scale, and the per-column range (for tails and `outside`). */
+/** Where a sample sat: centre, per-column scale (standardise.ts), and the per-column range (for tails and `outside`). */
 export interface Frame {
   readonly mean: Float64Array;
-  readonly scale: number;
+  readonly scale: Float64Array;
   readonly lo: Float64Array;
   readonly hi: Float64Array;
 }
 
 /**
- * A fitted gradient-net map: T(x) = m_t + s_t F((x - m_s) / s_s) with F the
+ * A fitted gradient-net map: T(x) = m_t + D_t F(D_s^-1 (x - m_s)) with F the
  * trained network (a gradient of a strongly convex function, see
- * float64-network.ts) and ONE positive scale per side, so T is itself the
- * gradient of a convex function and monotone by construction. Holds only
+ * float64-network.ts) and per-column scales D_s, D_t of the same shape
+ * (standardise.ts), so T is the gradient of a convex function in the inner
+ * product of the standardised units and monotone there by construction. Holds only
  * Float64Arrays: applying uses plain float64 JavaScript, dispose() is a no-op
  * and the map is JSON-serialisable (toJSON / GradientNetMap.fromJSON round-trip
  * bit-for-bit).
@@ -43,18 +44,35 @@ export class GradientNetMap extends BaseMap {
     this.net = new Float64Network(network);
   }
 
-  /** T(x) row by row in float64. O(n * hidden * d * layers). */
+  /** T(x) in float64, in blocks of rows (Float64Network.forwardRows). O(n * hidden * d * layers). */
   protected applyPoints(x: Points): Mapped {
     const { d } = this;
     const out = new Float64Array(x.n * d);
-    const row = new Float64Array(d);
-    const f = new Float64Array(d);
     const clamp = this.header.settings.tails !== 'linear';
+    const block = 4096;
+    const z = new Float64Array(block * d);
+    const f = new Float64Array(block * d);
+    const { lo, hi, mean: ms, scale: ss } = this.source;
+    const { mean: mt, scale: st } = this.target;
+    const data = x.data;
     let outside = 0;
-    for (let i = 0; i < x.n; i++) {
-      if (this.load(x.data, i, row, this.source, clamp)) outside++;
-      this.net.forward(row, f);
-      for (let k = 0; k < d; k++) out[i * d + k] = this.target.mean[k] + this.target.scale * f[k];
+    for (let start = 0; start < x.n; start += block) {
+      const rows = Math.min(block, x.n - start);
+      // Standardise the block (clamping to the fitted range with tails = clamp), counting rows outside it.
+      for (let r = 0, j = start * d, o = 0; r < rows; r++) {
+        let out = false;
+        for (let k = 0; k < d; k++, j++, o++) {
+          let v = data[j];
+          if (v < lo[k] || v > hi[k]) {
+            out = true;
+            if (clamp) v = v < lo[k] ? lo[k] : hi[k];
+          }
+          z[o] = (v - ms[k]) / ss[k];
+        }
+        if (out) outside++;
+      }
+      this.net.forwardRows(z, rows, f);
+      for (let r = 0, j = start * d, o = 0; r < rows; r++) for (let k = 0; k < d; k++, j++, o++) out[j] = mt[k] + st[k] * f[o];
     }
     return { n: x.n, d, data: out, outside };
   }
@@ -76,34 +94,37 @@ export class GradientNetMap extends BaseMap {
       const r = newtonInverse(this.net, row, x);
       if (!r.converged) {
         throw new RemapError(
-          `invert (gradient-net): Newton's method did not converge for row ${i + 1} (residual ${r.residual.toExponential(2)} after ${r.iterations} iterations); check that the values are of the target's size, or refit with more steps.`,
+          `invert (gradient-net): Newton's method did not converge for row ${i + 1} ` +
+            `(residual ${r.residual.toExponential(2)} after ${r.iterations} iterations); ` +
+            "check that the values are of the target's size, or refit with more steps.",
           'num',
         );
       }
-      for (let k = 0; k < d; k++) out[i * d + k] = this.source.mean[k] + this.source.scale * x[k];
+      for (let k = 0; k < d; k++) out[i * d + k] = this.source.mean[k] + this.source.scale[k] * x[k];
     }
     return { n: y.n, d, data: out, outside };
   }
 
   /**
-   * The Jacobian of T at one point x (original units; symmetric positive definite),
-   * d x d row-major: (s_t / s_s) J_F((x - m_s) / s_s). O(hidden * d^2).
+   * The Jacobian of T at one point x (original units), d x d row-major:
+   * D_t J_F D_s^-1 at the standardised point, similar to the symmetric positive
+   * definite J_F (symmetric itself when all columns share one scale). O(hidden * d^2).
    * @throws RemapError if x does not have d values.
    */
   jacobianAt(x: ArrayLike<number>): Float64Array {
     if (x.length !== this.d) throw new RemapError(`jacobianAt (gradient-net): the point has ${x.length} values; give ${this.d}.`);
     const row = new Float64Array(this.d);
-    for (let k = 0; k < this.d; k++) row[k] = (x[k] - this.source.mean[k]) / this.source.scale;
-    const jac = new Float64Array(this.d * this.d);
+    const d = this.d;
+    for (let k = 0; k < d; k++) row[k] = (x[k] - this.source.mean[k]) / this.source.scale[k];
+    const jac = new Float64Array(d * d);
     this.net.jacobian(row, jac);
-    const ratio = this.target.scale / this.source.scale;
-    for (let i = 0; i < jac.length; i++) jac[i] *= ratio;
+    for (let i = 0; i < d; i++) for (let k = 0; k < d; k++) jac[i * d + k] *= this.target.scale[i] / this.source.scale[k];
     return jac;
   }
 
   protected params(): unknown {
     const p = this.network;
-    const frame = (f: Frame) => ({ mean: Array.from(f.mean), scale: f.scale, lo: Array.from(f.lo), hi: Array.from(f.hi) });
+    const frame = (f: Frame) => ({ mean: Array.from(f.mean), scale: Array.from(f.scale), lo: Array.from(f.lo), hi: Array.from(f.hi) });
     return {
       network: {
         hidden: p.hidden,
@@ -157,7 +178,7 @@ export class GradientNetMap extends BaseMap {
         out = true;
         if (clamp) v = Math.min(f.hi[k], Math.max(f.lo[k], v));
       }
-      row[k] = (v - f.mean[k]) / f.scale;
+      row[k] = (v - f.mean[k]) / f.scale[k];
     }
     return out;
   }
@@ -168,7 +189,8 @@ function numbers(v: unknown, name: string, fn: string): Float64Array {
   const out = new Float64Array(v.length);
   for (let i = 0; i < v.length; i++) {
     const x = v[i];
-    if (typeof x !== 'number' || !Number.isFinite(x)) throw new RemapError(`${fn}: the saved gradient-net parameter ${name}[${i}] is ${String(x)}, not a finite number.`);
+    if (typeof x !== 'number' || !Number.isFinite(x))
+      throw new RemapError(`${fn}: the saved gradient-net parameter ${name}[${i}] is ${String(x)}, not a finite number.`);
     out[i] = x;
   }
   return out;
@@ -180,8 +202,12 @@ function frameOf(v: unknown, d: number, name: string, fn: string): Frame {
   const mean = numbers(o.mean, `${name}.mean`, fn);
   const lo = numbers(o.lo, `${name}.lo`, fn);
   const hi = numbers(o.hi, `${name}.hi`, fn);
-  const scale = Number(o.scale);
-  if (mean.length !== d || lo.length !== d || hi.length !== d) throw new RemapError(`${fn}: the saved ${name} frame does not have ${d} columns; save the map again.`);
-  if (!(scale > 0) || !Number.isFinite(scale)) throw new RemapError(`${fn}: the saved ${name} scale is ${String(o.scale)}; it must be a positive number.`);
+  // Maps saved before per-column scales hold one number for all columns.
+  const scale = typeof o.scale === 'number' ? new Float64Array(d).fill(o.scale) : numbers(o.scale, `${name}.scale`, fn);
+  if (mean.length !== d || lo.length !== d || hi.length !== d || scale.length !== d)
+    throw new RemapError(`${fn}: the saved ${name} frame does not have ${d} columns; save the map again.`);
+  for (let k = 0; k < d; k++) {
+    if (!(scale[k] > 0)) throw new RemapError(`${fn}: the saved ${name} scale of column ${k + 1} is ${scale[k]}; it must be a positive number.`);
+  }
   return { mean, scale, lo, hi };
 }

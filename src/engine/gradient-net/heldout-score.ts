@@ -2,7 +2,7 @@ import { COMPARISON_MAX_ROWS, COMPARISON_SEED } from '../assess';
 import { energyDistance } from '../stats/energy-distance';
 import { Float64Network } from './float64-network';
 import type { NetworkParams } from './network-params';
-import type { TrainData } from './train';
+import type { TrainData } from './train-data';
 
 /**
  * How well a network maps held-out source rows onto held-out target rows: the

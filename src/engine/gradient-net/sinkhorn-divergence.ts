@@ -1,4 +1,4 @@
-import * as tf from '@tensorflow/tfjs';
+import * as tf from '@tensorflow/tfjs-core';
 
 /**
  * The debiased Sinkhorn divergence (Feydy, Sejourne, Vialard, Amari, Trouve &

@@ -1,28 +1,39 @@
 import type { Sample } from '../points';
 
 /**
- * Centring plus ONE positive scale for all columns: x~ = (x - mean) / scale.
+ * Centring plus one positive scale per column: x~_k = (x_k - mean_k) / scale_k,
+ * with scale_k = c_k * s, where c_k is shared by source and target (the pooled
+ * column spread of stats/column-scales.ts with units = standardised, or 1 for
+ * every column with units = raw) and s is one number per sample that gives its
+ * standardised columns a mean variance of 1 (so the network starts on data of
+ * unit size, whatever the spreads of the two samples).
  *
- * Why one scalar: if the network F is the gradient of a convex function, the map
- * T(x) = m_t + s_t F((x - m_s) / s_s) has Jacobian (s_t / s_s) J_F((x - m_s)/s_s),
- * still symmetric positive semi-definite, so T stays the gradient of a convex
- * function (phi(x) = s_s s_t psi((x - m_s)/s_s) + m_t . x). With a separate scale
- * per column the Jacobian D_t J_F D_s^-1 is no longer symmetric in general and
- * monotonicity would hold only after the fact, so per-column scales are not used.
- * The price: columns on very different scales stay so after standardising
- * (as they do in the squared-distance cost the map minimises).
+ * Why this keeps the map monotone: with the network F a gradient of a convex
+ * function, the map T(x) = m_t + D_t F(D_s^-1 (x - m_s)), D = diag(scale), has
+ * D_t = (s_t / s_s) D_s, so its Jacobian (s_t / s_s) D_s J_F D_s^-1 is similar
+ * to the symmetric positive definite J_F: T is the gradient of a convex
+ * function in the inner product weighted by D_s^-2, that is, monotone and
+ * optimal for the cost sum_k ((x_k - y_k) / c_k)^2 (the product's rule for
+ * joint methods in standardised units; column-scales.ts). The Jacobian
+ * certificate is therefore read in scaled units. Earlier versions used one
+ * scale for all columns (units = raw still does) because per-side per-column
+ * scales of different shapes would give a Jacobian D_t J_F D_s^-1 that is not
+ * similar to a symmetric matrix; sharing the shape c_k between the sides avoids that.
  */
 export interface Standardiser {
   readonly mean: Float64Array;
-  readonly scale: number;
+  /** Per column, > 0. */
+  readonly scale: Float64Array;
 }
 
 /**
- * Weighted column means and the root mean of the weighted column variances
- * (sqrt(trace(cov) / d)); a zero or non-finite spread gives scale 1. O(n d).
- * @example standardiserOf(sample([[0, 0], [2, 2]])) // { mean: [1, 1], scale: 1 }
+ * Weighted column means, and scale_k = c_k * s with s the root mean of the
+ * weighted variances of the columns divided by c_k; a zero or non-finite s
+ * gives s = 1. O(n d).
+ * @param columnScales c_k > 0, shared by both samples (length d).
+ * @example standardiserOf(sample([[0, 0], [2, 2]]), Float64Array.of(1, 1)) // { mean: [1, 1], scale: [1, 1] }
  */
-export function standardiserOf(s: Sample): Standardiser {
+export function standardiserOf(s: Sample, columnScales: Float64Array): Standardiser {
   const { n, d, data, weights } = s;
   const mean = new Float64Array(d);
   let total = 0;
@@ -38,17 +49,18 @@ export function standardiserOf(s: Sample): Standardiser {
     const w = weights ? weights[i] : 1;
     if (w === 0) continue;
     for (let k = 0; k < d; k++) {
-      const e = data[i * d + k] - mean[k];
+      const e = (data[i * d + k] - mean[k]) / columnScales[k];
       ss += w * e * e;
     }
   }
-  const scale = Math.sqrt(ss / total / d);
-  return { mean, scale: scale > 0 && Number.isFinite(scale) ? scale : 1 };
+  let one = Math.sqrt(ss / total / d);
+  if (!(one > 0) || !Number.isFinite(one)) one = 1;
+  return { mean, scale: Float64Array.from(columnScales, (c) => c * one) };
 }
 
-/** (x - mean) / scale for every row, into a new Float64Array. O(n d). */
+/** (x_k - mean_k) / scale_k for every row, into a new Float64Array. O(n d). */
 export function standardise(data: Float64Array, d: number, st: Standardiser): Float64Array {
   const out = new Float64Array(data.length);
-  for (let j = 0; j < data.length; j++) out[j] = (data[j] - st.mean[j % d]) / st.scale;
+  for (let j = 0; j < data.length; j++) out[j] = (data[j] - st.mean[j % d]) / st.scale[j % d];
   return out;
 }

@@ -1,12 +1,14 @@
-import * as tf from '@tensorflow/tfjs';
+import * as tf from '@tensorflow/tfjs-core';
 import { RemapError } from '../errors';
 import type { FitContext } from '../map';
-import { activateBackend, exclusive, type BackendName } from './backend';
+import { activateBackend } from './activate-backend';
+import { exclusive, type BackendName } from './backend';
 import { BatchSampler, gatherRows } from './batch-sampler';
 import type { NetworkParams } from './network-params';
 import { PlateauDetector } from './plateau';
 import { Random } from './../stats/random';
-import { batchSinkhorn, type BatchSinkhornSetup } from './batch-sinkhorn';
+import type { Objective } from './objective';
+import type { TrainData } from './train-data';
 import { Float64Network } from './float64-network';
 import { TensorNetwork, paramsFromFlat } from './tensor-network';
 
@@ -14,34 +16,21 @@ import { TensorNetwork, paramsFromFlat } from './tensor-network';
 export interface TrainOptions {
   readonly steps: number;
   readonly learningRate: number;
-  /** Rows per batch from each sample; 0 = every row. */
+  /** Source rows per batch; 0 = every row. */
   readonly batch: number;
   readonly seed: number;
   readonly timeBudgetMs: number;
   readonly backend: BackendName;
-  /** Sinkhorn blur in standardised units (eps = blur^2). */
-  readonly blur: number;
-  /** Sinkhorn iterations of the annealing per step (more follow until converged, see SINKHORN_TOLERANCE). */
-  readonly sinkhornIterations: number;
+  /** What each step minimises (regression onto a teacher map, or the Sinkhorn divergence to the target). */
+  readonly objective: Objective;
 }
-
-/**
- * Each step's Sinkhorn runs until no potential moves by more than 1 % of eps in an
- * update, at most 60 iterations (batch-sinkhorn.ts). Measured on a batch of 256 of
- * the scenario demo data (d = 3, heavy-tailed target): the gradient was 27 % off
- * after a fixed 8 iterations, 1.3 % off with this rule (35 iterations); on the
- * known-truth pair 6 % -> 2 % at d = 2 (16 iterations) and 1 % -> 0.2 % at d = 8
- * (10 iterations).
- */
-export const SINKHORN_TOLERANCE = 1e-2;
-export const SINKHORN_MAX_ITERATIONS = 60;
 
 /**
  * Keeping the best checkpoint: every `every` steps the current weights are
  * scored (lower is better, e.g. HeldoutScore on held-out rows) and the best are
  * kept; training returns the best, never simply the last. `start` is the
- * candidate to beat (the pure Gaussian map), so a run that only makes the map
- * worse returns `start` unchanged. With `patience` > 0, training also stops
+ * candidate to beat (e.g. the pure Gaussian map), so a run that only makes the
+ * map worse returns `start` unchanged. With `patience` > 0, training also stops
  * (reason 'no-gain') after that many steps without a better score.
  */
 export interface Checkpoints {
@@ -51,13 +40,7 @@ export interface Checkpoints {
   readonly start: { readonly params: NetworkParams; readonly score: number };
 }
 
-/** Row-major standardised data of one sample. */
-export interface TrainData {
-  readonly n: number;
-  readonly d: number;
-  readonly data: Float64Array;
-  readonly weights: Float64Array | null;
-}
+export type { TrainData };
 
 export type StopReason = 'plateau' | 'no-gain' | 'steps' | 'time-budget';
 
@@ -70,7 +53,8 @@ export interface TrainResult {
   /** Score of the kept weights and of the start (NaN without checkpoints). */
   readonly keptScore: number;
   readonly startScore: number;
-  /** Smoothed (moving-average) debiased Sinkhorn divergence between batches at the end, standardised units. */
+  /** Smoothed (moving-average) training loss at the kept step (NaN for the start) and at the end. */
+  readonly keptLoss: number;
   readonly finalLoss: number;
   readonly stopped: StopReason;
   readonly elapsedMs: number;
@@ -89,71 +73,67 @@ const LR_CUTS = 2;
 const LR_CUT_FACTOR = 0.3;
 
 /**
- * Trains a gradient network from unpaired samples by minimising the debiased
- * Sinkhorn divergence between F(source batch) and a target batch (Adam, Kingma &
- * Ba, arXiv 1412.6980). Each step: draw batches with our seeded generator; map
- * the source batch with the current weights in float64; compute the divergence
- * and its gradient G with respect to the mapped points (batch-sinkhorn.ts,
- * envelope theorem: only the final potentials matter); then tfjs differentiates
- * the surrogate sum_i <F(x_i), G_i> (same parameter gradient, by the chain rule)
- * and Adam updates the one weight variable. Stops at a smoothed-loss plateau
- * (after up to two learning-rate cuts), after `patience` steps without a better
- * checkpoint score, after `steps`, or when `timeBudgetMs` is spent. With
- * `checkpoints`, returns the best-scoring weights seen (or `checkpoints.start`
- * when none beat it), so it never ends worse than its start by that score;
- * steps = 0 returns the start at once, untouched (no float32 rounding). Deterministic: same data, start and seed give bit-identical weights on
- * the same backend. Every tensor block runs in tf.tidy; only the weight variable
- * and the optimiser's slots persist, and all are disposed before returning
- * (also on error or cancel).
- * Cost per step O(batch^2 (d + iterations) + batch * hidden * (d + layers)).
+ * Trains a gradient network (Adam, Kingma & Ba, arXiv 1412.6980) on an
+ * objective of its outputs: each step draws a source batch with our seeded
+ * generator, maps it with the current weights in float64, asks the objective for
+ * the loss and its gradient G with respect to the mapped points (regression onto
+ * a teacher map, or the debiased Sinkhorn divergence to a target batch, whose
+ * gradient needs only the final potentials by the envelope theorem); then tfjs
+ * differentiates the surrogate sum_i <F(x_i), G_i> (same parameter gradient, by
+ * the chain rule) and Adam updates the one weight variable. Stops at a
+ * smoothed-loss plateau (after up to two learning-rate cuts), after `patience`
+ * steps without a better checkpoint score, after `steps`, or when `timeBudgetMs`
+ * is spent. With `checkpoints`, returns the best-scoring weights seen (or
+ * `checkpoints.start` when none beat it), so it never ends worse than its start
+ * by that score; steps = 0 returns the start at once, untouched (no float32
+ * rounding). Deterministic: same data, start and seed give bit-identical weights
+ * on the same backend. Every tensor block runs in tf.tidy; only the weight
+ * variable and the optimiser's slots persist, and all are disposed before
+ * returning (also on error or cancel).
+ * Cost per step: the objective's (O(batch^2 (d + iterations)) for Sinkhorn) plus
+ * O(batch * hidden * (d + layers)).
  * @throws RemapError(kind 'cancelled') when ctx.signal.aborted becomes true;
  *   RemapError(kind 'num') if the loss becomes non-finite.
  */
 export function trainGradientNet(
   source: TrainData,
-  target: TrainData,
   start: NetworkParams,
   opts: TrainOptions,
   ctx: FitContext = {},
   checkpoints: Checkpoints | null = null,
 ): Promise<TrainResult> {
-  return exclusive(() => train(source, target, start, opts, ctx, checkpoints));
+  return exclusive(() => train(source, start, opts, ctx, checkpoints));
 }
 
-async function train(source: TrainData, target: TrainData, start: NetworkParams, opts: TrainOptions, ctx: FitContext, checkpoints: Checkpoints | null): Promise<TrainResult> {
+async function train(source: TrainData, start: NetworkParams, opts: TrainOptions, ctx: FitContext, checkpoints: Checkpoints | null): Promise<TrainResult> {
   if (opts.steps === 0) {
     // Nothing to train: no backend, no tensors; the start is returned exactly (float64, no float32 rounding).
     const kept = checkpoints ? checkpoints.start : { params: start, score: NaN };
     ctx.onProgress?.({ step: 0, of: 0, loss: NaN, elapsedMs: 0, message: 'stopped: steps' });
-    return { params: kept.params, steps: 0, keptStep: 0, keptScore: kept.score, startScore: kept.score, finalLoss: NaN, stopped: 'steps', elapsedMs: 0, backend: opts.backend, backendFallback: null };
+    return {
+      params: kept.params,
+      steps: 0,
+      keptStep: 0,
+      keptScore: kept.score,
+      startScore: kept.score,
+      keptLoss: NaN,
+      finalLoss: NaN,
+      stopped: 'steps',
+      elapsedMs: 0,
+      backend: opts.backend,
+      backendFallback: null,
+    };
   }
   const { backend, fallback } = await activateBackend(opts.backend);
   const t0 = Date.now();
   const d = source.d;
   const rng = new Random(opts.seed ^ 0x5bd1e995);
-  const sizeX = opts.batch > 0 ? opts.batch : source.n;
-  const sizeY = opts.batch > 0 ? opts.batch : target.n;
-  const sx = new BatchSampler(source.n, sizeX, source.weights, rng);
-  const sy = new BatchSampler(target.n, sizeY, target.weights, rng);
-  let diameter2 = 0;
-  for (let i = 0; i < target.n; i++) {
-    let r = 0;
-    for (let k = 0; k < d; k++) r += target.data[i * d + k] ** 2;
-    diameter2 = Math.max(diameter2, 4 * r);
-  }
-  const setup: BatchSinkhornSetup = {
-    blur: opts.blur,
-    diameter2,
-    iterations: opts.sinkhornIterations,
-    tolerance: SINKHORN_TOLERANCE,
-    maxIterations: Math.max(opts.sinkhornIterations, SINKHORN_MAX_ITERATIONS),
-  };
+  const sx = new BatchSampler(source.n, opts.batch > 0 ? opts.batch : source.n, source.weights, rng);
   const net = new TensorNetwork(start);
   const vars = [net.theta];
   let lr = opts.learningRate;
   let optimizer = tf.train.adam(lr);
   const fullX = sx.isFull ? sx.next() : null;
-  const fullY = sy.isFull ? sy.next() : null;
   const fullXTensor = fullX ? tf.tensor2d(gatherRows(source.data, d, fullX), [fullX.length, d]) : null;
   const plateau = new PlateauDetector();
   let cuts = 0;
@@ -164,6 +144,7 @@ async function train(source: TrainData, target: TrainData, start: NetworkParams,
   let current: NetworkParams = net.toParams();
   let kept = checkpoints ? checkpoints.start : { params: current, score: NaN };
   let keptStep = 0;
+  let keptLoss = NaN;
   let scoredStep = 0;
   const consider = (at: number): void => {
     if (!checkpoints || at === scoredStep) return;
@@ -172,6 +153,7 @@ async function train(source: TrainData, target: TrainData, start: NetworkParams,
     if (score < kept.score) {
       kept = { params: current, score };
       keptStep = at;
+      keptLoss = plateau.smoothed;
     }
   };
   const row = new Float64Array(d);
@@ -184,7 +166,6 @@ async function train(source: TrainData, target: TrainData, start: NetworkParams,
         break;
       }
       const ix = fullX ?? sx.next();
-      const iy = fullY ?? sy.next();
       // Mapped source batch in float64 with the current weights.
       const f64 = new Float64Network(current);
       const mapped = new Float64Array(ix.length * d);
@@ -193,11 +174,12 @@ async function train(source: TrainData, target: TrainData, start: NetworkParams,
         f64.forward(row, out);
         mapped.set(out, b * d);
       }
-      const yb = new Float64Array(iy.length * d);
-      for (let b = 0; b < iy.length; b++) for (let k = 0; k < d; k++) yb[b * d + k] = target.data[iy[b] * d + k];
-      const { value, gradient } = batchSinkhorn(mapped, ix.length, yb, iy.length, d, setup);
+      const { value, gradient } = opts.objective.evaluate(mapped, ix);
       if (!Number.isFinite(value)) {
-        throw new RemapError(`fit (gradient-net): the training loss became ${value} at step ${step + 1}; lower learning_rate (now ${opts.learningRate}) or rescale the data.`, 'num');
+        throw new RemapError(
+          `fit (gradient-net): the training loss became ${value} at step ${step + 1}; lower learning_rate (now ${opts.learningRate}) or rescale the data.`,
+          'num',
+        );
       }
       tf.tidy(() => {
         const xb = fullXTensor ?? tf.tensor2d(gatherRows(source.data, d, ix), [ix.length, d]);
@@ -205,6 +187,7 @@ async function train(source: TrainData, target: TrainData, start: NetworkParams,
         optimizer.minimize(() => tf.sum(tf.mul(net.apply(xb), g)) as tf.Scalar, false, vars);
       });
       current = paramsFromFlat(await net.theta.data(), d, start.hidden, start.layers);
+      const plateaued = plateau.push(value);
       if (checkpoints && (step + 1) % checkpoints.every === 0) {
         consider(step + 1);
         if (checkpoints.patience > 0 && step + 1 - keptStep >= checkpoints.patience) {
@@ -213,7 +196,7 @@ async function train(source: TrainData, target: TrainData, start: NetworkParams,
           break;
         }
       }
-      if (plateau.push(value)) {
+      if (plateaued) {
         if (cuts >= LR_CUTS) {
           step++;
           stopped = 'plateau';
@@ -239,11 +222,24 @@ async function train(source: TrainData, target: TrainData, start: NetworkParams,
     if (!checkpoints) {
       kept = { params: current, score: NaN };
       keptStep = step;
+      keptLoss = plateau.smoothed;
     }
     const elapsedMs = Date.now() - t0;
     ctx.onProgress?.({ step, of: opts.steps, loss: plateau.smoothed, elapsedMs, message: `stopped: ${stopped}` });
     const startScore = checkpoints ? checkpoints.start.score : NaN;
-    return { params: kept.params, steps: step, keptStep, keptScore: kept.score, startScore, finalLoss: plateau.smoothed, stopped, elapsedMs, backend, backendFallback: fallback };
+    return {
+      params: kept.params,
+      steps: step,
+      keptStep,
+      keptScore: kept.score,
+      startScore,
+      keptLoss,
+      finalLoss: plateau.smoothed,
+      stopped,
+      elapsedMs,
+      backend,
+      backendFallback: fallback,
+    };
   } finally {
     optimizer.dispose();
     net.dispose();

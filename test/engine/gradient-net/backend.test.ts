@@ -1,5 +1,6 @@
-import * as tf from '@tensorflow/tfjs';
-import { activateBackend, configureBackend, exclusive } from '../../../src/engine/gradient-net/backend';
+import { tf } from './tf-backends';
+import { activateBackend } from '../../../src/engine/gradient-net/activate-backend';
+import { configureBackend, exclusive } from '../../../src/engine/gradient-net/backend';
 
 describe('backend selection', () => {
   test('configureBackend rejects an empty path and an unknown backend', () => {
@@ -12,6 +13,7 @@ describe('backend selection', () => {
     expect(tf.getBackend()).toBe('wasm');
     configureBackend({ prefer: 'cpu' });
     expect((await activateBackend('wasm')).backend).toBe('cpu');
+    expect(tf.getBackend()).toBe('cpu');
     configureBackend({ prefer: 'wasm' });
     expect((await activateBackend('cpu')).backend).toBe('cpu');
   });

@@ -5,8 +5,15 @@ import { randomParams } from './helpers';
 
 function makeMap(tails: 'clamp' | 'linear'): GradientNetMap {
   const p = randomParams(2, 6, 1, 3);
-  const frame = { mean: Float64Array.of(1, 2), scale: 2, lo: Float64Array.of(-3, -2), hi: Float64Array.of(5, 6) };
-  const header = { method: 'gradient-net' as const, d: 2, settings: { tails }, columns: null, n: { source: 50, target: 50 }, dropped: { source: 0, target: 0 } };
+  const frame = { mean: Float64Array.of(1, 2), scale: Float64Array.of(2, 2), lo: Float64Array.of(-3, -2), hi: Float64Array.of(5, 6) };
+  const header = {
+    method: 'gradient-net' as const,
+    d: 2,
+    settings: { tails },
+    columns: null,
+    n: { source: 50, target: 50 },
+    dropped: { source: 0, target: 0 },
+  };
   const cost = { kind: 'mapped' as const, w2Squared: 1, w2: 1, note: '' };
   return new GradientNetMap(header, { cost, warnings: [] }, p, frame, frame);
 }
@@ -22,7 +29,7 @@ describe('GradientNetMap', () => {
     expect(lin.data[0]).not.toBe(lin.data[2]);
   });
 
-  test('jacobianAt is symmetric positive definite in original units', () => {
+  test('jacobianAt is symmetric positive definite in original units when the columns share one scale', () => {
     const j = makeMap('linear').jacobianAt([0.5, 1]);
     expect(j[1]).toBe(j[2]);
     expect(j[0]).toBeGreaterThan(0);
@@ -36,7 +43,14 @@ describe('GradientNetMap', () => {
     const p = json.params as { network: Record<string, unknown>; source: unknown; target: unknown };
     expect(() => GradientNetMap.fromJSON(bad(null))).toThrow(/no network parameters/);
     expect(() => GradientNetMap.fromJSON(bad({ ...p, network: { ...p.network, w: [1, 'x'] } }))).toThrow(/w\[1\] is x/);
-    expect(() => GradientNetMap.fromJSON(bad({ ...p, source: { mean: [0, 0], scale: -1, lo: [0, 0], hi: [1, 1] } }))).toThrow(/positive number/);
+    expect(() => GradientNetMap.fromJSON(bad({ ...p, source: { mean: [0, 0], scale: [1, -1], lo: [0, 0], hi: [1, 1] } }))).toThrow(
+      /column 2 is -1; it must be a positive/,
+    );
+    // A map saved with one scale number for all columns (earlier format) still loads and maps the same.
+    const old = bad({ ...p, source: { ...(p.source as object), scale: 2 }, target: { ...(p.target as object), scale: 2 } });
+    expect(GradientNetMap.fromJSON(old).apply({ n: 1, d: 2, data: Float64Array.of(1, 1) }).data).toEqual(
+      makeMap('linear').apply({ n: 1, d: 2, data: Float64Array.of(1, 1) }).data,
+    );
     expect(GradientNetMap.fromJSON(JSON.parse(JSON.stringify(json))).apply({ n: 1, d: 2, data: Float64Array.of(1, 1) }).data).toEqual(
       makeMap('linear').apply({ n: 1, d: 2, data: Float64Array.of(1, 1) }).data,
     );
