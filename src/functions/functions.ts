@@ -228,6 +228,8 @@ export function bounds(
  * Maps values within their groups (region, wave, age band): one map per group, fitted from the source and target rows of that group, and each value
  * mapped by its own group's map. A group lacking rows is an error naming it unless fallback is "pooled".
  * @customfunction BYGROUP
+ * @cancelable
+ * @requiresAddress
  * @param values One column of values (one row per point for several columns).
  * @param value_groups The group of each value: one cell per row, as tall as values.
  * @param source The source sample.
@@ -239,6 +241,7 @@ export function bounds(
  * @param [source_weights] One non-negative weight per source row.
  * @param [target_weights] One non-negative weight per target row.
  * @param [fallback] "none" (default) or "pooled": the map fitted on all rows stands in for groups lacking rows, with a warning.
+ * @param invocation Excel's cancel hook: the fit stops when the inputs change or the cell is cleared.
  * @returns The values mapped within their groups.
  */
 export function bygroup(
@@ -253,15 +256,31 @@ export function bygroup(
   source_weights?: any[][],
   target_weights?: any[][],
   fallback?: any,
+  invocation?: CustomFunctions.CancelableInvocation,
 ): any[][] {
   return guard(() =>
-    groupCalls.byGroup(values, value_groups, source, source_groups, target, target_groups, method, settings, source_weights, target_weights, fallback),
+    groupCalls.byGroup(
+      values,
+      value_groups,
+      source,
+      source_groups,
+      target,
+      target_groups,
+      method,
+      settings,
+      source_weights,
+      target_weights,
+      fallback,
+      cancelledBy(invocation),
+    ),
   ) as unknown as any[][];
 }
 
 /**
  * Fits one map per group and returns a handle for them all, for REMAP.APPLYGROUPS and REMAP.GROUPREPORT.
  * @customfunction FITGROUPS
+ * @cancelable
+ * @requiresAddress
  * @param source The source sample.
  * @param source_groups The group of each source row, as tall as source.
  * @param target The target sample, with the same columns.
@@ -271,7 +290,8 @@ export function bygroup(
  * @param [source_weights] One non-negative weight per source row.
  * @param [target_weights] One non-negative weight per target row.
  * @param [fallback] "none" (default) or "pooled".
- * @returns A handle naming the maps by group.
+ * @param invocation Excel's cancel hook: the fit stops when the inputs change or the cell is cleared.
+ * @returns A handle naming the maps by group; the maps are kept in the workbook, so they outlive the session.
  */
 export function fitgroups(
   source: any[][],
@@ -283,9 +303,10 @@ export function fitgroups(
   source_weights?: any[][],
   target_weights?: any[][],
   fallback?: any,
+  invocation?: CustomFunctions.CancelableInvocation,
 ): string {
   return guard(() =>
-    groupCalls.fitGroups(source, source_groups, target, target_groups, method, settings, source_weights, target_weights, fallback),
+    groupCalls.fitGroups(source, source_groups, target, target_groups, method, settings, source_weights, target_weights, fallback, cancelledBy(invocation)),
   ) as unknown as string;
 }
 
