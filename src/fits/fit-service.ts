@@ -26,6 +26,11 @@ export type Fitter = (method: string, source: Sample, target: Sample, settings: 
 export const fitInThisThread: Fitter = (method, source, target, settings, ctx) => startFit(method, source, target, settings, ctx);
 let fitter: Fitter = fitInThisThread;
 
+/** Where fits run now (fitInThisThread unless the host set another). */
+export function currentFitter(): Fitter {
+  return fitter;
+}
+
 /** Sets where fits run (null: back to this thread). */
 export function setFitter(f: Fitter | null): void {
   fitter = f ?? fitInThisThread;

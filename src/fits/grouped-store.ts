@@ -1,11 +1,17 @@
 import { RemapError } from '../engine/errors';
+import { isGroupedMapJSON, parseGroupedMapJSON, restoreGroupedMap } from '../engine/groups/grouped-json';
 import type { GroupedMap } from '../engine/groups/grouped-map';
+import { currentKeeper, type KeptInfo } from './keeper';
 
 /**
  * Maps by group, by handle, for this session (the 64 most recently used), as
  * store.ts keeps single maps: REMAP.FITGROUPS remembers, REMAP.APPLYGROUPS and
  * REMAP.GROUPREPORT and the pane's group list recall. A grouped handle reads
- * "remap:groups-<method>:<n>x<d>:<hex>".
+ * "remap:groups-<method>:<n>x<d>:<hex>". Like single maps, maps by group are
+ * also given to the host's Keeper (the workbook, in the add-in) as their JSON
+ * ("remap.grouped-map"), and a handle this session lacks is looked up there,
+ * so after reopening a workbook REMAP.APPLYGROUPS gives the same values
+ * without fitting again.
  */
 
 const MAX_GROUPED = 64;
@@ -51,32 +57,73 @@ export function forgetAllGrouped(): void {
 }
 
 /**
- * The map under `handle`, fitted by `fit` if the session lacks it; a fit
- * already running for the handle is shared, not started twice.
+ * The map under `handle`: this session's, else the keeper's copy, else fitted
+ * by `fit` (and then kept); a fit already running for the handle is shared,
+ * not started twice. A kept copy that no longer reads is fitted again.
  */
-export function recallOrFitGrouped(handle: string, fit: () => GroupedMap | Promise<GroupedMap>): GroupedMap | Promise<GroupedMap> {
+export function recallOrFitGrouped(handle: string, fit: () => GroupedMap | Promise<GroupedMap>, info?: KeptInfo): GroupedMap | Promise<GroupedMap> {
   const known = recallGrouped(handle);
   if (known) return known;
   const running = inflight.get(handle);
   if (running) return running;
-  const r = fit();
-  if (!(r instanceof Promise)) {
-    rememberGrouped(handle, r);
-    return r;
+  const finish = (json: string | null): GroupedMap | Promise<GroupedMap> => {
+    const restored = fromKept(handle, json);
+    if (restored) return restored;
+    const r = fit();
+    if (!(r instanceof Promise)) {
+      store(handle, r, info);
+      return r;
+    }
+    const p = r.then(
+      (m) => {
+        inflight.delete(handle);
+        store(handle, m, info);
+        return m;
+      },
+      (e: unknown) => {
+        inflight.delete(handle);
+        throw e;
+      },
+    );
+    inflight.set(handle, p);
+    return p;
+  };
+  const kept = keptText(handle);
+  return kept instanceof Promise ? kept.then(finish, () => finish(null)) : finish(kept);
+}
+
+/** The keeper's text for `handle` (null when none is kept or there is no keeper; a damaged copy reads as none). */
+function keptText(handle: string): string | null | Promise<string | null> {
+  try {
+    return currentKeeper()?.load(handle) ?? null;
+  } catch {
+    return null;
   }
-  const p = r.then(
-    (m) => {
-      inflight.delete(handle);
-      rememberGrouped(handle, m);
-      return m;
-    },
-    (e: unknown) => {
-      inflight.delete(handle);
-      throw e;
-    },
-  );
-  inflight.set(handle, p);
-  return p;
+}
+
+/** A kept copy restored and remembered, or null when `json` is absent or not a map by group that reads. */
+function fromKept(handle: string, json: string | null): GroupedMap | null {
+  if (!json) return null;
+  try {
+    const m = restoreGroupedMap(parseGroupedMapJSON(json));
+    rememberGrouped(handle, m);
+    return m;
+  } catch {
+    return null;
+  }
+}
+
+/** Remembers a fitted map by group and gives it to the keeper (best effort: it still works in this session). */
+function store(handle: string, m: GroupedMap, info?: KeptInfo): void {
+  rememberGrouped(handle, m);
+  const keeper = currentKeeper();
+  if (!keeper) return;
+  try {
+    const r = keeper.save(handle, JSON.stringify(m.toJSON()), info);
+    if (r instanceof Promise) r.catch(() => undefined);
+  } catch {
+    /* keeping is best effort */
+  }
 }
 
 /**
@@ -92,5 +139,31 @@ export function resolveGrouped(text: string, fn: string): GroupedMap | Promise<G
   if (m) return m;
   const running = inflight.get(t);
   if (running) return running;
-  throw new RemapError(`${fn}: no map by group is known under ${t} in this session; recalculate the REMAP.FITGROUPS cell that made it.`);
+  const missing = (): never => {
+    throw new RemapError(
+      `${fn}: no map by group is known under ${t} in this session or this workbook; recalculate the REMAP.FITGROUPS cell that made it.`,
+      'na',
+    );
+  };
+  const found = (json: string | null): GroupedMap => {
+    if (json && isGroupedMapJSON(safeParse(json))) return restoreKept(t, json);
+    return missing();
+  };
+  const kept = currentKeeper()?.load(t) ?? null;
+  return kept instanceof Promise ? kept.then(found) : found(kept);
+}
+
+function safeParse(text: string): unknown {
+  try {
+    return JSON.parse(text);
+  } catch {
+    return null;
+  }
+}
+
+/** Restores a kept copy for a using cell: a copy that does not read is an error saying so (the using cell cannot refit). */
+function restoreKept(handle: string, json: string): GroupedMap {
+  const m = restoreGroupedMap(parseGroupedMapJSON(json));
+  rememberGrouped(handle, m);
+  return m;
 }

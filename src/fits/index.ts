@@ -11,6 +11,6 @@ export { DEFAULT_TIME_BUDGET_SECONDS, ENFORCED_TIME_BUDGET, hasOwnTimeBudget, sp
 export { type FitInputs, type FitCells, readFit } from './read-fit';
 export { watchFits } from './watchers';
 export { type CellMap, cellKey, noteCellMap, cellMap } from './cell-maps';
-export { type FitRun, type Fitter, setFitter, fitInThisThread, fitFromInputs } from './fit-service';
+export { type FitRun, type Fitter, setFitter, currentFitter, fitInThisThread, fitFromInputs } from './fit-service';
 export { type StreamSink, STREAM_EVERY_MS, streamFit, progressText } from './stream-fit';
 export { reportTable } from './report-table';

@@ -228,6 +228,8 @@ export function bounds(
  * Maps values within their groups (region, wave, age band): one map per group, fitted from the source and target rows of that group, and each value
  * mapped by its own group's map. A group lacking rows is an error naming it unless fallback is "pooled".
  * @customfunction BYGROUP
+ * @cancelable
+ * @requiresAddress
  * @param values One column of values (one row per point for several columns).
  * @param value_groups The group of each value: one cell per row, as tall as values.
  * @param source The source sample.
@@ -239,6 +241,7 @@ export function bounds(
  * @param [source_weights] One non-negative weight per source row.
  * @param [target_weights] One non-negative weight per target row.
  * @param [fallback] "none" (default) or "pooled": the map fitted on all rows stands in for groups lacking rows, with a warning.
+ * @param invocation Excel's cancel hook: the fit stops when the inputs change or the cell is cleared.
  * @returns The values mapped within their groups.
  */
 export function bygroup(
@@ -253,15 +256,31 @@ export function bygroup(
   source_weights?: any[][],
   target_weights?: any[][],
   fallback?: any,
+  invocation?: CustomFunctions.CancelableInvocation,
 ): any[][] {
   return guard(() =>
-    groupCalls.byGroup(values, value_groups, source, source_groups, target, target_groups, method, settings, source_weights, target_weights, fallback),
+    groupCalls.byGroup(
+      values,
+      value_groups,
+      source,
+      source_groups,
+      target,
+      target_groups,
+      method,
+      settings,
+      source_weights,
+      target_weights,
+      fallback,
+      cancelledBy(invocation),
+    ),
   ) as unknown as any[][];
 }
 
 /**
  * Fits one map per group and returns a handle for them all, for REMAP.APPLYGROUPS and REMAP.GROUPREPORT.
  * @customfunction FITGROUPS
+ * @cancelable
+ * @requiresAddress
  * @param source The source sample.
  * @param source_groups The group of each source row, as tall as source.
  * @param target The target sample, with the same columns.
@@ -271,7 +290,8 @@ export function bygroup(
  * @param [source_weights] One non-negative weight per source row.
  * @param [target_weights] One non-negative weight per target row.
  * @param [fallback] "none" (default) or "pooled".
- * @returns A handle naming the maps by group.
+ * @param invocation Excel's cancel hook: the fit stops when the inputs change or the cell is cleared.
+ * @returns A handle naming the maps by group; the maps are kept in the workbook, so they outlive the session.
  */
 export function fitgroups(
   source: any[][],
@@ -283,9 +303,10 @@ export function fitgroups(
   source_weights?: any[][],
   target_weights?: any[][],
   fallback?: any,
+  invocation?: CustomFunctions.CancelableInvocation,
 ): string {
   return guard(() =>
-    groupCalls.fitGroups(source, source_groups, target, target_groups, method, settings, source_weights, target_weights, fallback),
+    groupCalls.fitGroups(source, source_groups, target, target_groups, method, settings, source_weights, target_weights, fallback, cancelledBy(invocation)),
   ) as unknown as string;
 }
 
@@ -313,30 +334,39 @@ export function groupreport(model: any): any[][] {
 }
 
 /**
- * Maps values from a source sample onto a distribution published as a table. A quantile table (probability 0..1, value) is read as a straight line
- * between its points; beyond its first and last probability its end values hold. A frequency table (value, count or share) is the values written out.
+ * Maps values between a sample and a distribution published as a table: onto the table (table_side "target", default) or from it ("source"). A quantile
+ * table (probability 0..1, value) is read as a straight line between its points; beyond its first and last probability its end values hold. A frequency
+ * table (value, count or share) is the values written out. The Remap pane lists this formula with the map's warnings (a coarse table, values in the
+ * table's tails) and how many of its own values lay outside the fitted range.
  * @customfunction TOTABLE
- * @param values Cells to map (one column of the source's kind).
- * @param source The source sample: one column.
+ * @requiresAddress
+ * @param values Cells to map (one column): on the sample's scale, or on the table's with table_side "source".
+ * @param sample The sample on the other side: one column (the source by default; the target with table_side "source").
  * @param table Two columns: probability and value (quantiles), or value and count or share (frequencies); a header row is skipped.
  * @param [table_kind] "quantiles" (default) or "frequencies".
  * @param [method] "quantile" (default; the only one for a quantile table), "step" or "ordinal" for a frequency table.
  * @param [settings] Settings as text or a two-column range, e.g. "tails=linear".
- * @param [source_weights] One non-negative weight per source row.
+ * @param [sample_weights] One non-negative weight per sample row.
  * @param [beyond] "hold" (default: keep the table's end values) or "extend" (continue its end steps, an extrapolation).
+ * @param [table_side] "target" (default: the sample is mapped onto the table) or "source" (the table is mapped onto the sample).
+ * @param invocation Excel's call details: the cell's address, to record the map's and this call's warnings for the pane.
  * @returns The mapped values, in the shape of values.
  */
 export function totable(
   values: any[][],
-  source: any[][],
+  sample: any[][],
   table: any[][],
   table_kind?: any,
   method?: any,
   settings?: any,
-  source_weights?: any[][],
+  sample_weights?: any[][],
   beyond?: any,
+  table_side?: any,
+  invocation?: CustomFunctions.Invocation,
 ): any[][] {
-  return guard(() => tableCall.toTable(values, source, table, table_kind, method, settings, source_weights, beyond)) as unknown as any[][];
+  return guard(() =>
+    tableCall.toTable(values, sample, table, table_kind, method, settings, sample_weights, beyond, table_side, siteOf(invocation)),
+  ) as unknown as any[][];
 }
 
 /**

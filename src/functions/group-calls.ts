@@ -3,7 +3,7 @@ import type { GroupLabel } from '../engine/groups/group-labels';
 import type { GroupedMap } from '../engine/groups/grouped-map';
 import type { Points } from '../engine/points';
 import { asRows, CellError, readText, readValues, type CellIn, type CellOut, type Grid } from '../input';
-import { then, type MaybePromise } from '../fits';
+import { then, type FitRun, type MaybePromise } from '../fits';
 import { labelAt } from '../fits/group-labels-in';
 import { fitGrouped, readGroupedFit } from '../fits/grouped-fit';
 import { resolveGrouped } from '../fits/grouped-store';
@@ -29,9 +29,10 @@ export function fitGroups(
   sourceWeights?: CellIn,
   targetWeights?: CellIn,
   fallback?: CellIn,
+  ctx: FitRun = {},
 ): MaybePromise<string> {
   const g = readGroupedFit('REMAP.FITGROUPS', { source, sourceGroups, target, targetGroups, method, settings, sourceWeights, targetWeights, fallback });
-  return then(fitGrouped(g), () => g.handle);
+  return then(fitGrouped(g, undefined, ctx), () => g.handle);
 }
 
 /** REMAP.APPLYGROUPS: values mapped by their own group's map ("apply", default) or its inverse ("invert"). */
@@ -58,11 +59,12 @@ export function byGroup(
   sourceWeights?: CellIn,
   targetWeights?: CellIn,
   fallback?: CellIn,
+  ctx: FitRun = {},
 ): MaybePromise<Grid> {
   const fn = 'REMAP.BYGROUP';
   const g = readGroupedFit(fn, { source, sourceGroups, target, targetGroups, method, settings, sourceWeights, targetWeights, fallback });
   const read = readGroupedValues(vals, valueGroups, g.inputs.source.sample.d, fn);
-  return then(fitGrouped(g, read.labels), (map) => checkPayload(runByGroup(map, read, 'apply'), fn));
+  return then(fitGrouped(g, read.labels, ctx), (map) => checkPayload(runByGroup(map, read, 'apply'), fn));
 }
 
 /** REMAP.GROUPREPORT: a grouped map's groups with their sizes, costs and warnings (see groupTable). */

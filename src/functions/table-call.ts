@@ -1,13 +1,20 @@
 import { RemapError } from '../engine/errors';
+import { Fingerprint } from '../engine/fingerprint';
+import { extrapolationWarning } from '../engine/outside';
+import type { TransportMap } from '../engine/map';
 import { fitFromTables, type Distribution1d } from '../engine/tables/fit-from-tables';
 import { frequencyTable } from '../engine/tables/frequency-table';
 import { quantileTable } from '../engine/tables/quantile-table';
 import { asRows, cellKind, readSample, readSettings, readText, readValues, writeValues, type CellIn, type Grid } from '../input';
-import { checkPayload } from './calls';
+import { makeHandle, noteCellMap, recallOrFit, type MaybePromise } from '../fits';
+import { checkPayload, type CallSite } from './calls';
 
 /**
- * REMAP.TOTABLE: values mapped from a source sample onto a distribution
- * given as a published table, in the shape of `values`.
+ * REMAP.TOTABLE: values mapped between a sample and a distribution given as a
+ * published table, in the shape of `values`. `table_side` "target" (default):
+ * the sample is the source and values are mapped onto the table's
+ * distribution; "source": the table is the source and values (on the table's
+ * scale) are mapped onto the sample's distribution.
  * - table_kind "quantiles" (default): two columns (probability as a share 0..1,
  *   value), probabilities rising; the table's quantile function is read as a
  *   straight line between its points (linear in probability), so values at the
@@ -17,9 +24,12 @@ import { checkPayload } from './calls';
  * - table_kind "frequencies": two columns (value, count or share): exactly the
  *   values written out row by row, weighted by their counts; any 1-D method.
  * A header row of text is skipped. The engine's fitFromTables warns of a coarse
- * table and of source values beyond its probabilities (REMAP.FIT's report shows
- * the same for the CLI's fit-table).
- * Cost: O((n + K) log(n + K)) per calculation.
+ * table and of values beyond its probabilities; the map is kept by a handle
+ * made from every input's exact bits (as REMAP.FIT's), so recalculating with
+ * unchanged inputs does not fit again, and the calling cell is recorded with
+ * that handle and the warning about its own values outside the fitted range,
+ * so the pane's formula list shows the map's warnings beside the cell.
+ * Cost: O((n + K) log(n + K)) for a new fit; O(values) when the handle is known.
  * @throws RemapError for bad input, naming the argument and the row.
  */
 export function toTable(
@@ -31,8 +41,16 @@ export function toTable(
   settings?: CellIn,
   sourceWeights?: CellIn,
   beyond?: CellIn,
-): Grid {
+  tableSide?: CellIn,
+  site: CallSite = {},
+): MaybePromise<Grid> {
   const fn = 'REMAP.TOTABLE';
+  const side = readText(tableSide, 'table_side', fn, 'target').toLowerCase();
+  if (side !== 'target' && side !== 'source') {
+    throw new RemapError(
+      `${fn}: table_side is "${side}"; give "target" (default: the sample is mapped onto the table) or "source" (the table is mapped onto the sample).`,
+    );
+  }
   const kind = readText(tableKind, 'table_kind', fn, 'quantiles').toLowerCase();
   if (kind !== 'quantiles' && kind !== 'frequencies') {
     throw new RemapError(`${fn}: table_kind is "${kind}"; give "quantiles" (probability, value) or "frequencies" (value, count or share).`);
@@ -40,20 +58,31 @@ export function toTable(
   const how = readText(beyond, 'beyond', fn, 'hold').toLowerCase();
   if (how !== 'hold' && how !== 'extend') throw new RemapError(`${fn}: beyond is "${how}"; give "hold" (keep the table's end values) or "extend".`);
   const name = readText(method, 'method', fn, 'quantile').toLowerCase();
-  const s = readSample(source, { name: 'source', fn, weights: sourceWeights, weightsName: 'source_weights' });
-  if (s.sample.d !== 1) throw new RemapError(`${fn}: the source has ${s.sample.d} columns; a table maps one column: select one.`);
+  const s = readSample(source, { name: 'sample', fn, weights: sourceWeights, weightsName: 'sample_weights' });
+  if (s.sample.d !== 1) throw new RemapError(`${fn}: the sample has ${s.sample.d} columns; a table maps one column: select one.`);
   const [a, b] = readTableColumns(table, fn);
-  const target: Distribution1d =
+  const raw = readSettings(settings, fn);
+  const published: Distribution1d =
     kind === 'quantiles'
       ? { kind: 'quantiles', table: quantileTable(a, b, `${fn} table`) }
       : { kind: 'frequencies', table: frequencyTable(a, b, `${fn} table`) };
-  const map = fitFromTables(name, { kind: 'sample', sample: s.sample }, target, readSettings(settings, fn), how);
-  try {
-    const { points, layout } = readValues(vals, 1, fn);
-    return checkPayload(writeValues(map.apply(points), layout), fn);
-  } finally {
-    map.dispose();
-  }
+  const sample: Distribution1d = { kind: 'sample', sample: s.sample };
+  const [from, to] = side === 'target' ? [sample, published] : [published, sample];
+  const { points, layout } = readValues(vals, 1, fn);
+  const f = new Fingerprint().text('totable').text(name).text(kind).text(side).text(how);
+  f.numbers(s.sample.data).numbers(s.sample.weights).numbers(a).numbers(b);
+  for (const k of Object.keys(raw).sort()) f.text(k.toLowerCase()).text(String(raw[k]));
+  const handle = makeHandle(`table-${name}`, s.sample.n, 1, f.hex());
+  const fitted = recallOrFit(handle, () => fitFromTables(name, from, to, raw, how), site.cell ? { cell: site.cell } : undefined);
+  const finish = (map: TransportMap): Grid => {
+    const mapped = map.apply(points);
+    if (site.cell) {
+      const w = extrapolationWarning(map, mapped, 'apply');
+      noteCellMap(site.cell, fn, handle, w ? [w] : []);
+    }
+    return checkPayload(writeValues(mapped, layout), fn);
+  };
+  return fitted instanceof Promise ? fitted.then(finish) : finish(fitted);
 }
 
 /** The two columns of a table, skipping a header row of text and blank rows at the end; any other non-number is an error naming its row. */

@@ -113,7 +113,7 @@ export const REMAP_FUNCTIONS: Readonly<Record<string, Spec>> = {
     impl: groupCalls.groupReport as Impl,
     size: () => [GROUP_REPORT_ROWS, 8],
   },
-  'REMAP.TOTABLE': { method: 'totable', sizeMethod: 'totableSize', parameters: params(3, 5), impl: toTable as Impl, size: shapeOf(0) },
+  'REMAP.TOTABLE': { method: 'totable', sizeMethod: 'totableSize', parameters: params(3, 6), impl: toTable as Impl, size: shapeOf(0) },
 };
 
 type ProcedureAst = Parameters<FunctionPlugin['runFunction']>[0] extends (infer A)[] ? { args: A[]; procedureName: string } : never;

@@ -6,7 +6,7 @@ import { warningsInWords } from './plain-words';
  * What the pane says about one REMAP formula found in the workbook: which
  * function it calls; for those that fit a map, the map's warnings in words (or,
  * with none, the reminder that the map is an estimate to validate); and for
- * those that map values (VALUES, APPLY, INVERT), the warnings about that
+ * those that map values (VALUES, APPLY, INVERT, TOTABLE), the warnings about that
  * cell's own values, such as rows outside the fitted range. Pure; no DOM, no
  * Office.
  */
@@ -20,11 +20,11 @@ export function noWarningsLine(reminder: string = ENGINE_REMINDER): string {
 export const ESTIMATE_REMINDER = noWarningsLine();
 
 /** Functions whose cell fits (or restores) a map of its own. */
-const FITTING = new Set(['VALUES', 'COST', 'FIT', 'PAIRS', 'LOAD']);
+const FITTING = new Set(['VALUES', 'COST', 'FIT', 'PAIRS', 'LOAD', 'TOTABLE']);
 /** Functions that use the map held in another cell. */
 const USING = new Set(['APPLY', 'INVERT', 'REPORT', 'SAVE']);
 /** Functions that map values, whose own values may lie outside the fitted range. */
-const MAPPING = new Set(['VALUES', 'APPLY', 'INVERT']);
+const MAPPING = new Set(['VALUES', 'APPLY', 'INVERT', 'TOTABLE']);
 
 /** One line of the pane's "Formulas in this workbook" list. */
 export interface FormulaStatus {

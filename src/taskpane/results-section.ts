@@ -6,12 +6,14 @@ import { shownBand } from './bounds-view';
 import { noWarningsLine } from './formula-status';
 import { diagnosticsInWords, warningsInWords } from './plain-words';
 import { chartTable, columnName, distributionSvg, qqSvg, scatterSvg, type PlotData } from './plots-view';
+import { hideGroups } from './groups-view';
 
 /* Section 4, What the fit says: diagnostics and warnings in words, plots, and a native chart on request. */
 
 /** Shows a map's diagnostics and warnings, and its plots when the pane has the fit's data. */
 export function showResults(handle: string, diag: Diagnostics, data: PlotData | null, reason: string | null): void {
   $('results').hidden = false;
+  hideGroups();
   $('result-handle').textContent = handle;
   const list = $('diagnostics');
   const lines = diagnosticsInWords(diag);

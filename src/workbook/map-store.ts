@@ -1,5 +1,6 @@
 import { RemapError } from '../engine/errors';
 import { Fingerprint } from '../engine/fingerprint';
+import { isGroupedMapJSON, parseGroupedMapJSON } from '../engine/groups/grouped-json';
 import { parseMapJSON } from '../engine/map-json';
 import type { Keeper, KeptInfo } from '../fits';
 import type { ExcelRun } from './excel-run';
@@ -27,6 +28,12 @@ import { escapeXml, jsonSafeForXml, unescapeXmlText, xmlElements } from '../comm
  * engine's parse limit). Document settings (Office.Settings) were not used:
  * they are one JSON blob for the whole add-in, loaded whole, and documented as
  * small (about 2 MB, from memory).
+ *
+ * Maps by group (REMAP.FITGROUPS, JSON format "remap.grouped-map") are kept
+ * the same way, by their handle, with `grouped="1"` in the index; their rows
+ * are summed over the groups and their cost is the source-weighted mean of the
+ * groups' costs, as their report gives it. Their JSON is read with
+ * parseGroupedMapJSON.
  *
  * Integrity: the index records each map's length and a fingerprint of its
  * text; a copy that does not match is refused with a message (never half-read),
@@ -59,6 +66,8 @@ export interface KeptMap {
   readonly check: string;
   /** The REMAP.FIT cell that made it, when known ("Sheet1!F2"). */
   readonly cell: string;
+  /** True for a map by group (REMAP.FITGROUPS; JSON format "remap.grouped-map"). */
+  readonly grouped: boolean;
   /** Ids of its chunk parts, in order. */
   readonly parts: readonly string[];
 }
@@ -148,12 +157,13 @@ export class WorkbookMapStore implements Keeper {
   /**
    * Keeps `json` under `handle`, replacing an earlier copy. Saving the same
    * text again only updates the recorded cell. The JSON is checked with
-   * parseMapJSON first, so only maps this product can read are kept.
+   * parseMapJSON (parseGroupedMapJSON for a map by group) first, so only maps
+   * this product can read are kept.
    * @throws RemapError for JSON that is not a map; Office errors when the workbook refuses the write.
    */
   save(handle: string, text: string, info: KeptInfo = {}): Promise<void> {
     return this.serial(async () => {
-      const map = parseMapJSON(text);
+      const map = summaryOf(text);
       const json = jsonSafeForXml(text);
       const { maps, indexIds } = await this.readIndex();
       const old = maps.get(handle);
@@ -182,11 +192,7 @@ export class WorkbookMapStore implements Keeper {
       }
       maps.set(handle, {
         handle,
-        method: map.method,
-        rows: map.n.source,
-        targetRows: map.n.target,
-        cols: map.d,
-        cost: map.fitted.cost.w2Squared,
+        ...map,
         saved: this.now().toISOString(),
         chars: json.length,
         check,
@@ -249,7 +255,8 @@ export class WorkbookMapStore implements Keeper {
           a('saved', m.saved) +
           a('chars', m.chars) +
           a('check', m.check) +
-          a('cell', m.cell);
+          a('cell', m.cell) +
+          (m.grouped ? a('grouped', 1) : '');
         return `<map${attrs}>${m.parts.map((id) => `<part id="${escapeXml(id)}"/>`).join('')}</map>`;
       })
       .join('');
@@ -299,8 +306,37 @@ function entryOf(a: Readonly<Record<string, string>>, parts: string[]): KeptMap 
     chars: num('chars'),
     check: a.check ?? '',
     cell: a.cell ?? '',
+    grouped: a.grouped === '1',
     parts,
   };
+}
+
+/** What the index records of a map's JSON text, after checking it as the engine reads it. O(length). */
+function summaryOf(text: string): Pick<KeptMap, 'method' | 'rows' | 'targetRows' | 'cols' | 'cost' | 'grouped'> {
+  let grouped = false;
+  try {
+    grouped = isGroupedMapJSON(JSON.parse(text));
+  } catch {
+    grouped = false; // parseMapJSON below says what is wrong with the text
+  }
+  if (!grouped) {
+    const map = parseMapJSON(text);
+    return { method: map.method, rows: map.n.source, targetRows: map.n.target, cols: map.d, cost: map.fitted.cost.w2Squared, grouped: false };
+  }
+  const g = parseGroupedMapJSON(text);
+  let rows = 0;
+  let targetRows = 0;
+  let num = 0;
+  let den = 0;
+  for (const e of g.groups) {
+    rows += e.rows.source;
+    targetRows += e.rows.target;
+    const cost = (e.map ?? g.pooled)?.fitted.cost.w2Squared ?? 0;
+    num += e.weight.source * cost;
+    den += e.weight.source;
+  }
+  // The same source-weighted mean GroupedMap.report() gives as the cost of all groups.
+  return { method: g.method, rows, targetRows, cols: g.d, cost: den > 0 ? num / den : 0, grouped: true };
 }
 
 /** The fingerprint recorded beside a kept map's text. O(length). */

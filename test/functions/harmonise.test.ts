@@ -1,6 +1,7 @@
 import * as ss from 'simple-statistics';
 import * as F from '../../src/functions/functions';
-import { forgetAll } from '../../src/fits';
+import { cellMap, forgetAll, recall } from '../../src/fits';
+import { formulaStatus } from '../../src/taskpane/formula-status';
 import { forgetAllGrouped } from '../../src/fits/grouped-store';
 import { installCustomFunctionsStub, StubSheetError } from '../helpers/custom-functions-stub';
 
@@ -193,6 +194,51 @@ describe('REMAP.TOTABLE', () => {
     expect(sheetError(() => F.totable(col([0.5]), col(uniform), bad)).message).toContain('row 3 of the table');
     expect(sheetError(() => F.totable(col([0.5]), col(uniform), normalTable as any[][], 'quantiles', 'step')).code).toBe('#VALUE!');
     expect(sheetError(() => F.totable(col([0.5]), col(uniform), normalTable as any[][], 'deciles')).message).toContain('table_kind');
+  });
+
+  test('table_side "source": the normal quantile table mapped onto a uniform sample gives Phi at the table\'s points, linear in between', () => {
+    const out = F.totable(col([1, 2, 0.25]), col(uniform), normalTable as any[][], undefined, undefined, undefined, undefined, undefined, 'source');
+    // Source: Abramowitz & Stegun (1964), Table 26.1: Phi(1) = 0.841344746068543, Phi(2) = 0.977249868051821 (from memory, as above)
+    expect(out[0][0]).toBeCloseTo(0.841344746068543, 9);
+    expect(out[1][0]).toBeCloseTo(0.977249868051821, 9);
+    // Source: worked by hand: the quantile curve is linear in p between (0.5, 0) and (0.691462461, 0.5),
+    // so x = 0.25 sits at p = 0.5 + 0.5 x 0.191462461 = 0.595731
+    expect(out[2][0]).toBeCloseTo(0.5957312306, 8);
+    // Source: A&S Table 26.1, Phi(0.25) = 0.598706 (from memory): the straight-line reading errs by less than 0.005 here
+    expect(Math.abs((out[2][0] as number) - 0.598706325683)).toBeLessThan(0.005);
+    expect(
+      sheetError(() => F.totable(col([1]), col(uniform), normalTable as any[][], undefined, undefined, undefined, undefined, undefined, 'both')).message,
+    ).toContain('table_side');
+  });
+
+  test("the map's warnings (a coarse table, values in its tails) and the cell's own values outside the fitted range are recorded with the cell", () => {
+    const invocation = { address: "'Wave 2'!$C$4" } as CustomFunctions.Invocation;
+    F.totable(col([0.5, 1.5]), col(uniform), normalTable as any[][], undefined, undefined, undefined, undefined, undefined, undefined, invocation);
+    const noted = cellMap('Wave 2!C4');
+    expect(noted?.fn).toBe('REMAP.TOTABLE');
+    const diag = recall(noted!.handle)!.diagnostics();
+    // Source: the table above has 13 points (fewer than COARSE_POINTS = 20, a design choice) and stops at p = 0.00135 and 0.99865
+    // (A&S Table 26.1), while the uniform sample's Hazen positions reach 0.00025 and 0.99975: both warnings must be there.
+    expect(diag.warnings.map((w) => w.code).sort()).toEqual(['extrapolation', 'small-sample']);
+    expect(diag.warnings.find((w) => w.code === 'small-sample')?.message).toContain('coarse (13 points');
+    // Source: 1.5 lies beyond the sample's largest value 0.99975 (worked by hand): the cell's own call warns of one value outside
+    expect(noted!.calls.map((w) => w.code)).toEqual(['extrapolation']);
+    const status = formulaStatus('=REMAP.TOTABLE(C2:C3,A2:A2001,E1:F14)', diag, noted!.calls);
+    // Source: design choice: the pane lists the map's two warnings and the call's own one (three lines)
+    expect(status.kind).toBe('warnings');
+    expect(status.lines).toHaveLength(3);
+  });
+
+  test('recalculating with unchanged inputs finds the fitted map (no fit again); a changed table fits a new one', () => {
+    const cell = { address: 'Sheet1!B2' } as CustomFunctions.Invocation;
+    const call = (t: unknown[][]) => F.totable(col([0.3]), col(uniform), t as any[][], undefined, undefined, undefined, undefined, undefined, undefined, cell);
+    call(normalTable);
+    const first = recall(cellMap('Sheet1!B2')!.handle);
+    call(normalTable.map((r) => [...r]));
+    // Source: design choice: the handle is made from the inputs' exact bits, so equal inputs give the very same map object
+    expect(recall(cellMap('Sheet1!B2')!.handle)).toBe(first);
+    call(normalTable.map((r, k) => (k === 7 ? [r[0], 0.01] : r)));
+    expect(recall(cellMap('Sheet1!B2')!.handle)).not.toBe(first);
   });
 });
 

@@ -1,6 +1,7 @@
 import * as F from '../../src/functions/functions';
 import type { TransportMap } from '../../src/engine/map';
-import { forgetAll, resolveMap, setKeeper } from '../../src/fits';
+import { forgetAll, resolveMap, setFitter, setKeeper } from '../../src/fits';
+import { forgetAllGrouped } from '../../src/fits/grouped-store';
 import type { ExcelRun } from '../../src/workbook/excel-run';
 import { CHUNK_NAMESPACE, INDEX_NAMESPACE, WorkbookMapStore } from '../../src/workbook/map-store';
 import { installCustomFunctionsStub } from '../helpers/custom-functions-stub';
@@ -11,7 +12,9 @@ const officeMock = require('../browser/office-mock.js');
 installCustomFunctionsStub();
 afterEach(() => {
   setKeeper(null);
+  setFitter(null);
   forgetAll();
+  forgetAllGrouped();
 });
 
 const col = (xs: number[]) => Object.freeze(xs.map((x) => Object.freeze([x]))) as unknown as any[][];
@@ -132,3 +135,47 @@ async function quantileJson(): Promise<string> {
   const h = (await F.fit(col([1, 2, 3]), col([10, 20, 40]))) as unknown as string;
   return (await F.save(h)) as unknown as string;
 }
+
+describe('maps by group are kept in the workbook like single maps', () => {
+  // Two groups of 40 source and 50 target rows each (seeded LCG data); every group fits on its own rows.
+  const groupsOf = (n: number) => col(Array.from({ length: n }, (_, i) => (i < n / 2 ? 1 : 2))).map((r) => [r[0] === 1 ? 'North' : 'South']);
+  const src = rows(80, 1, 21, (u) => 10 * u);
+  const tgt = rows(100, 1, 22, (u) => 100 + 50 * u * u);
+  const probe = [[0.5], [2], [7.5], [9.9]];
+  const probeGroups = [['North'], ['South'], ['North'], ['South']];
+
+  test('after reopening, REMAP.APPLYGROUPS on a REMAP.FITGROUPS handle gives bit-identical values without fitting again', async () => {
+    const mock = officeMock.createWorkbook();
+    const store = storeOn(mock);
+    setKeeper(store);
+    const handle = (await F.fitgroups(src, groupsOf(80), tgt, groupsOf(100))) as unknown as string;
+    const first = (await F.applygroups(handle, probe, probeGroups)) as number[][];
+    const [kept] = await store.list(); // waits for the background save (the store's queue)
+    // Source: the data above (40 + 40 source rows, 50 + 50 target rows, 1 column); design choice: a map by group is flagged in the index
+    expect(kept).toMatchObject({ handle, method: 'quantile', rows: 80, targetRows: 100, cols: 1, grouped: true });
+
+    forgetAll();
+    forgetAllGrouped();
+    setKeeper(storeOn(officeMock.createWorkbook({ state: mock.state })));
+    setFitter(() => {
+      throw new Error('no fit may run: the map by group is in the workbook');
+    });
+    const again = (await F.applygroups(handle, probe, probeGroups)) as number[][];
+    for (let i = 0; i < probe.length; i++) expect(Object.is(again[i][0], first[i][0])).toBe(true);
+    // The FITGROUPS cell recalculated after reopening finds the kept copy too (the fitter above would throw).
+    expect(await F.fitgroups(src, groupsOf(80), tgt, groupsOf(100))).toBe(handle);
+  });
+
+  test("a kept map by group records the source-weighted mean of the groups' costs, as REMAP.GROUPREPORT gives it", async () => {
+    const mock = officeMock.createWorkbook();
+    const store = storeOn(mock);
+    setKeeper(store);
+    const handle = (await F.fitgroups(src, groupsOf(80), tgt, groupsOf(100))) as unknown as string;
+    const report = (await F.groupreport(handle)) as unknown[][];
+    const costs = report.slice(1, 3).map((r) => r[5] as number);
+    const [kept] = await store.list();
+    // Source: equal source weights (40 rows each), so the weighted mean is the plain mean of the two groups' squared W2 (worked by hand)
+    expect(kept.cost).toBeCloseTo((costs[0] + costs[1]) / 2, 10);
+    expect(await store.load(handle)).toContain('"format":"remap.grouped-map"');
+  });
+});

@@ -16,7 +16,21 @@ export interface GroupedFitOptions {
   readonly valueGroups?: ArrayLike<GroupLabel>;
   /** Column names, dropped rows, progress and cancelling, passed on to every group's fit. */
   readonly ctx?: FitContext;
+  /**
+   * Fits one group's map (default: the engine's own `startFit`). A host passes
+   * its own to run each group's fit elsewhere (a worker), with the same inputs.
+   */
+  readonly fit?: GroupFitter;
 }
+
+/** Fits one group's map, as the engine's `startFit` does (sync or a Promise). */
+export type GroupFitter = (
+  method: string,
+  source: Sample,
+  target: Sample,
+  settings: Readonly<Record<string, unknown>>,
+  ctx: FitContext,
+) => TransportMap | Promise<TransportMap>;
 
 interface Plan {
   readonly spec: MethodSpec;
@@ -55,12 +69,20 @@ export async function fitGroupedMap(
 ): Promise<GroupedMap> {
   const plan = planGroups(method, source, sourceGroups, target, targetGroups, settings, options);
   const fits = new Map<string, TransportMap>();
+  const fitOne = options.fit ?? startFit;
+  const ctx = options.ctx ?? {};
+  // Checked between groups too, so a cancel or a caller's time budget stops many quick closed-form fits.
+  const stopped = (): void => {
+    if (ctx.signal?.aborted) throw new RemapError(`fit by group (${plan.spec.name}): the fit was cancelled before every group was fitted.`, 'cancelled');
+  };
   try {
     for (const key of plan.keys) {
       const p = plan.parts.get(key)!;
-      if (p.reason === null) fits.set(key, await inGroup(key, plan.spec.name, () => startFit(plan.spec.name, p.source!, p.target!, settings, options.ctx ?? {})));
+      stopped();
+      if (p.reason === null) fits.set(key, await inGroup(key, plan.spec.name, () => fitOne(plan.spec.name, p.source!, p.target!, settings, ctx)));
     }
-    const pooled = plan.fallback === 'pooled' ? await inGroup(null, plan.spec.name, () => startFit(plan.spec.name, source, target, settings, options.ctx ?? {})) : null;
+    stopped();
+    const pooled = plan.fallback === 'pooled' ? await inGroup(null, plan.spec.name, () => fitOne(plan.spec.name, source, target, settings, ctx)) : null;
     return assemble(plan, fits, pooled, source, target, settings);
   } catch (e) {
     for (const m of fits.values()) m.dispose();
@@ -85,6 +107,10 @@ export function fitGroupedMapSync(
   const fits = new Map<string, TransportMap>();
   for (const key of plan.keys) {
     const p = plan.parts.get(key)!;
+    if (options.ctx?.signal?.aborted) {
+      for (const m of fits.values()) m.dispose();
+      throw new RemapError(`fit by group (${plan.spec.name}): the fit was cancelled before every group was fitted.`, 'cancelled');
+    }
     if (p.reason === null) fits.set(key, inGroupSync(key, plan.spec.name, () => fitMapSync(plan.spec.name, p.source!, p.target!, settings, options.ctx ?? {})));
   }
   const pooled = plan.fallback === 'pooled' ? inGroupSync(null, plan.spec.name, () => fitMapSync(plan.spec.name, source, target, settings, options.ctx ?? {})) : null;
