@@ -99,6 +99,7 @@ export function fitEntropic(source: Sample, target: Sample, settings: Settings, 
     kind: 'sinkhorn-divergence',
     w2Squared,
     w2: Math.sqrt(w2Squared),
+    units: opts.units === 'standardised' ? 'standardised' : 'raw',
     note: costNote(eps, opts.units, fx.points, fx.logMass, fy.points, fy.logMass, gap, w2Squared),
   };
   const solves = [

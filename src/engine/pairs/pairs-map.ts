@@ -187,6 +187,7 @@ function fitRecord(raw: Points, rawTarget: Points, match: Int32Array, header: Ma
     kind: 'assignment',
     w2Squared,
     w2: Math.sqrt(w2Squared),
+    units: scales ? 'standardised' : 'raw',
     note: scales
       ? 'Mean squared distance, in standardised units (each column divided by its pooled spread), between each source row and its partner in the optimal one-to-one matching: the exact squared 2-Wasserstein distance between the two samples for that weighted cost (equal sizes, equal weights).'
       : 'Mean squared distance between each source row and its partner in the optimal one-to-one matching: the exact squared 2-Wasserstein distance between the two samples (equal sizes, equal weights).',

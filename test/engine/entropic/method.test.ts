@@ -20,3 +20,13 @@ describe('entropicMethod', () => {
     expect(Array.from(back.apply(src).data)).toEqual(Array.from(map.apply(src).data));
   });
 });
+
+describe('entropic cost: its units are stated', () => {
+  test('the cost says standardised units by default and raw units with units=raw', async () => {
+    const src = sample([[0, 0], [1, 100], [0, 200], [1, 300], [0.5, 150]]);
+    const tgt = sample([[5, 5], [7, 105], [5, 207], [7, 307], [6, 160]]);
+    // Source: design choice (a cost in standardised units must say so beside a raw-units figure).
+    expect((await fitMap('entropic', src, tgt, {})).cost().units).toBe('standardised');
+    expect((await fitMap('entropic', src, tgt, { units: 'raw' })).cost().units).toBe('raw');
+  });
+});
