@@ -23,7 +23,10 @@ if (unknown.length || !chosen.length) {
   process.exit(2);
 }
 const methods = ALL_METHODS.filter((m) => chosen.includes(m));
-const dims = args.filter((_, i) => at < 0 || (i !== at && i !== at + 1)).map(Number).filter((d) => d > 0);
+const dims = args
+  .filter((_, i) => at < 0 || (i !== at && i !== at + 1))
+  .map(Number)
+  .filter((d) => d > 0);
 
 async function main(): Promise<void> {
   console.log(`accuracy against a known optimal map, n = ${n}, 2,000 fresh test points (one run)`);
@@ -43,11 +46,14 @@ async function main(): Promise<void> {
       const predicted = map.apply(test);
       const uvp = l2uvp(predicted, exact, variance);
       if (m === 'linear') linearUvp = uvp;
-      const warn = map.diagnostics().warnings.map((w) => w.code).filter((c) => c !== 'extrapolation');
+      const warn = map
+        .diagnostics()
+        .warnings.map((w) => w.code)
+        .filter((c) => c !== 'extrapolation');
       console.log(
         `${String(d).padEnd(4)}${m.padEnd(15)}${uvp.toFixed(2).padStart(8)}   ${cosineMetric(test, predicted, exact).toFixed(4)}  ` +
           `${secs.toFixed(1).padStart(6)}    ` +
-            `${m === 'linear' ? '1' : (linearUvp / uvp).toFixed(1) + 'x better'}${warn.length ? '   warnings: ' + warn.join(', ') : ''}`,
+          `${m === 'linear' ? '1' : (linearUvp / uvp).toFixed(1) + 'x better'}${warn.length ? '   warnings: ' + warn.join(', ') : ''}`,
       );
       map.dispose();
     }

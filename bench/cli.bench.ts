@@ -15,7 +15,11 @@ import { Random } from '../src/engine/stats/random';
 
 const N = 1_048_576;
 const bin = path.resolve(__dirname, '..', 'bin', 'remap.js');
-const load = (): string => os.loadavg().map((v) => v.toFixed(2)).join(' ');
+const load = (): string =>
+  os
+    .loadavg()
+    .map((v) => v.toFixed(2))
+    .join(' ');
 
 /** Seconds and peak resident memory (MB) of one whole `remap` process. */
 function run(args: string[]): { s: number; mb: number } {
@@ -78,8 +82,12 @@ async function main(): Promise<void> {
     console.log(`${c.label}: file ${(fs.statSync(f(c.files[0])).size / 1e6).toFixed(0)} MB; load ${load()}`);
     console.log(`  reading the file(s) once    ${read2.toFixed(2)} s (both) / ${read1.toFixed(2)} s (one)`);
     console.log(`  engine fit / apply          ${fitE.toFixed(2)} s / ${applyE.toFixed(2)} s`);
-    console.log(`  remap fit (whole process)   ${fit.s.toFixed(2)} s  ${(fit.s / (fitE + read2)).toFixed(1)}x engine + read (goal <= 3x), peak ${fit.mb.toFixed(0)} MB`);
-    console.log(`  remap apply (whole process) ${apply.s.toFixed(2)} s  ${(apply.s / (applyE + read1)).toFixed(1)}x engine + read (goal <= 3x), peak ${apply.mb.toFixed(0)} MB`);
+    console.log(
+      `  remap fit (whole process)   ${fit.s.toFixed(2)} s  ${(fit.s / (fitE + read2)).toFixed(1)}x engine + read (goal <= 3x), peak ${fit.mb.toFixed(0)} MB`,
+    );
+    console.log(
+      `  remap apply (whole process) ${apply.s.toFixed(2)} s  ${(apply.s / (applyE + read1)).toFixed(1)}x engine + read (goal <= 3x), peak ${apply.mb.toFixed(0)} MB`,
+    );
   }
   console.log(`load average after: ${load()}`);
   fs.rmSync(dir, { recursive: true, force: true });

@@ -20,7 +20,11 @@ function arg(name: string, fallback: string): string {
   const at = process.argv.indexOf(`--${name}`);
   return at >= 0 && process.argv[at + 1] ? process.argv[at + 1] : fallback;
 }
-const load = (): string => os.loadavg().map((l) => l.toFixed(2)).join(' ');
+const load = (): string =>
+  os
+    .loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ');
 const cpuMs = (): number => {
   const u = process.cpuUsage();
   return (u.user + u.system) / 1000;
@@ -70,7 +74,9 @@ function report(): void {
       `${f.padEnd(10)} ${fitS.toFixed(1).padStart(5)}  ${fitCpu.toFixed(1).padStart(9)}  ${its.padStart(27)}  ${uvp.toFixed(2).padStart(8)}  ${applyS.toFixed(1).padStart(7)}  ${applyCpu.toFixed(1).padStart(11)}  ${((applyS * 1e6) / rows).toFixed(1).padStart(9)}  ${fullCpu.toFixed(1).padStart(17)}  ${os.loadavg()[0].toFixed(2)}`,
     );
   }
-  console.log(`worst / median: fit ${Math.max(...fits).toFixed(1)} / ${median(fits).toFixed(1)} s; L2-UVP ${Math.max(...uvps).toFixed(2)} / ${median(uvps).toFixed(2)} %; 1M rows ${Math.max(...applies).toFixed(1)} / ${median(applies).toFixed(1)} s; load average ${load()}`);
+  console.log(
+    `worst / median: fit ${Math.max(...fits).toFixed(1)} / ${median(fits).toFixed(1)} s; L2-UVP ${Math.max(...uvps).toFixed(2)} / ${median(uvps).toFixed(2)} %; 1M rows ${Math.max(...applies).toFixed(1)} / ${median(applies).toFixed(1)} s; load average ${load()}`,
+  );
 }
 
 function sweep(): void {
@@ -91,7 +97,15 @@ function sweep(): void {
     });
     console.log(`${f.padEnd(10)} ${cells.join(' ')}   load ${os.loadavg()[0].toFixed(2)}`);
   }
-  console.log(`worst      ${cols.map((c) => Math.max(...c).toFixed(2).padStart(9)).join(' ')}`);
+  console.log(
+    `worst      ${cols
+      .map((c) =>
+        Math.max(...c)
+          .toFixed(2)
+          .padStart(9),
+      )
+      .join(' ')}`,
+  );
 }
 
 if (process.argv.includes('--sweep')) sweep();

@@ -29,7 +29,10 @@ import { knownTruth, l2uvp, totalVariance } from './truth';
 
 const asSample = (p: Points): Sample => ({ ...p, weights: null });
 const row = (cells: (string | number)[]): string => cells.map((c) => String(c).padStart(14)).join(' ');
-const load = (): string => `load average ${loadavg().map((v) => v.toFixed(2)).join(', ')}`;
+const load = (): string =>
+  `load average ${loadavg()
+    .map((v) => v.toFixed(2))
+    .join(', ')}`;
 const cpuMs = (): number => {
   const u = process.cpuUsage();
   return (u.user + u.system) / 1000;
@@ -130,8 +133,10 @@ function speed(): void {
   }
   const naiveIterMs = (performance.now() - t) / naiveReps;
 
-  console.log(`\nSpeed: n = m = ${n}, d = ${d}, eps = ${eps.toPrecision(3)} (default rule), default tolerance; fit started at ${loadBefore}, ` +
-    `table ends at ${load()}`);
+  console.log(
+    `\nSpeed: n = m = ${n}, d = ${d}, eps = ${eps.toPrecision(3)} (default rule), default tolerance; fit started at ${loadBefore}, ` +
+      `table ends at ${load()}`,
+  );
   console.log(row(['measure', 'ms', 'ratio']));
   console.log(row(['fit total wall', fitMs.toFixed(0), (fitMs / 5000).toFixed(2) + ' x goal']));
   console.log(row(['fit total CPU', fitCpuMs.toFixed(0), (fitCpuMs / 5000).toFixed(2) + ' x goal']));
@@ -145,8 +150,10 @@ function speed(): void {
   console.log(row(['self K w full', squareTimesMs.toFixed(1), '1.00']));
   console.log(row(['self K w packed', symTimesMs.toFixed(1), (symTimesMs / squareTimesMs).toFixed(2)]));
   console.log(`  ${diag.convergence?.criterion}`);
-  console.log(`  minJacobianEigenvalue ${diag.minJacobianEigenvalue?.toExponential(3)}, w2Squared ${diag.cost.w2Squared.toFixed(4)}, warnings: ` +
-    `${diag.warnings.map((w) => w.code).join(', ') || 'none'}`);
+  console.log(
+    `  minJacobianEigenvalue ${diag.minJacobianEigenvalue?.toExponential(3)}, w2Squared ${diag.cost.w2Squared.toFixed(4)}, warnings: ` +
+      `${diag.warnings.map((w) => w.code).join(', ') || 'none'}`,
+  );
 }
 
 /** Map change between the default tolerance and 1e-6, against the iterations and time saved (transport solve only). */

@@ -19,7 +19,11 @@ const family = arg('family', 'gauss') as FamilyName;
 const n = Number(arg('n', '1000000'));
 const d = Number(arg('d', '5'));
 const extra = JSON.parse(arg('settings', '{}')) as Record<string, unknown>;
-const load = () => os.loadavg().map((l) => l.toFixed(1)).join(' ');
+const load = () =>
+  os
+    .loadavg()
+    .map((l) => l.toFixed(1))
+    .join(' ');
 
 async function main(): Promise<void> {
   let t0 = performance.now();

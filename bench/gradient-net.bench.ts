@@ -65,12 +65,24 @@ async function stepTimes(): Promise<void> {
   for (const be of ['wasm', 'cpu']) {
     await tf.setBackend(be);
     await tf.ready();
-    const net = new TensorNetwork(initialParams(d, 64, 1, Float64Array.from({ length: 25 }, (_, i) => (i % 6 === 0 ? 1 : 0)), new Random(2)));
+    const net = new TensorNetwork(
+      initialParams(
+        d,
+        64,
+        1,
+        Float64Array.from({ length: 25 }, (_, i) => (i % 6 === 0 ? 1 : 0)),
+        new Random(2),
+      ),
+    );
     const x = tf.tensor2d(xData, [n, d]);
     const g = tf.tensor2d(gData, [n, d]);
     const opt = tf.train.adam(0.001);
     const time = (f: (x: tf.Tensor2D) => tf.Tensor2D, reps: number) => {
-      const step = () => tf.tidy(() => { opt.minimize(() => tf.sum(tf.mul(f(x), g)) as tf.Scalar, false, [net.theta]); net.theta.dataSync(); });
+      const step = () =>
+        tf.tidy(() => {
+          opt.minimize(() => tf.sum(tf.mul(f(x), g)) as tf.Scalar, false, [net.theta]);
+          net.theta.dataSync();
+        });
       step();
       const t0 = performance.now();
       for (let i = 0; i < reps; i++) step();
@@ -105,10 +117,11 @@ async function sinkhornTimes(): Promise<void> {
       await tf.setBackend(be);
       const xt = tf.tensor2d(Float32Array.from(x), [B, 5]);
       const yt = tf.tensor2d(Float32Array.from(y), [B, 5]);
-      const run = () => tf.tidy(() => {
-        const pot = sinkhornPotentials(xt, yt, setup);
-        tf.grad((z: tf.Tensor) => sinkhornDivergenceAt(z as tf.Tensor2D, yt, pot))(xt).dataSync();
-      });
+      const run = () =>
+        tf.tidy(() => {
+          const pot = sinkhornPotentials(xt, yt, setup);
+          tf.grad((z: tf.Tensor) => sinkhornDivergenceAt(z as tf.Tensor2D, yt, pot))(xt).dataSync();
+        });
       run();
       const s = performance.now();
       for (let i = 0; i < k; i++) run();
@@ -118,8 +131,10 @@ async function sinkhornTimes(): Promise<void> {
     };
     const wasm = await tfTime('wasm', reps);
     const cpu = B <= 256 ? await tfTime('cpu', 1) : NaN;
-    console.log(`${String(B).padStart(5)} | ${js.toFixed(1).padStart(13)} | ${wasm.toFixed(1).padStart(12)} | ` +
-      `${(Number.isNaN(cpu) ? '-' : cpu.toFixed(1)).padStart(11)} | ${(wasm / js).toFixed(2)}`);
+    console.log(
+      `${String(B).padStart(5)} | ${js.toFixed(1).padStart(13)} | ${wasm.toFixed(1).padStart(12)} | ` +
+        `${(Number.isNaN(cpu) ? '-' : cpu.toFixed(1)).padStart(11)} | ${(wasm / js).toFixed(2)}`,
+    );
   }
 }
 
@@ -140,8 +155,7 @@ function cosine(pred: Points, truth: Points, x: Points): number {
 async function accuracy(): Promise<void> {
   console.log(`\n3. Accuracy on bench/truth.ts, n = 4,000 per sample, defaults (wasm), 4,000 fresh test rows`);
   console.log('d | warm start L2-UVP % | trained L2-UVP % | cos | steps | stop | wall s | load');
-  const settingsOf = (raw: Record<string, unknown>) =>
-    resolveSettings('gradient-net', gradientNetMethod.settings, { tails: 'linear', ...raw });
+  const settingsOf = (raw: Record<string, unknown>) => resolveSettings('gradient-net', gradientNetMethod.settings, { tails: 'linear', ...raw });
   for (const d of quick ? [2] : [2, 4, 8]) {
     const truth = knownTruth(d, 1);
     const n = 4000;
@@ -158,13 +172,19 @@ async function accuracy(): Promise<void> {
     const pred = map.apply(test);
     const c = map.diagnostics().convergence!;
     const stop = c.converged ? 'plateau' : map.diagnostics().warnings.some((w) => w.code === 'time-budget') ? 'budget' : 'steps';
-    console.log(`${d} | ${warmUvp.toFixed(2).padStart(19)} | ${l2uvp(pred, exact, v).toFixed(2).padStart(16)} | ` +
-      `${cosine(pred, exact, test).toFixed(4)} | ${String(c.iterations).padStart(5)} | ${stop.padEnd(7)} | ${wall.toFixed(1).padStart(6)} | ${load()}`);
+    console.log(
+      `${d} | ${warmUvp.toFixed(2).padStart(19)} | ${l2uvp(pred, exact, v).toFixed(2).padStart(16)} | ` +
+        `${cosine(pred, exact, test).toFixed(4)} | ${String(c.iterations).padStart(5)} | ${stop.padEnd(7)} | ${wall.toFixed(1).padStart(6)} | ${load()}`,
+    );
   }
 }
 
 function readCsv(name: string) {
-  const lines = fs.readFileSync(path.join(__dirname, '..', 'demo-workbooks', 'data', name), 'utf8').trim().split('\n').slice(1);
+  const lines = fs
+    .readFileSync(path.join(__dirname, '..', 'demo-workbooks', 'data', name), 'utf8')
+    .trim()
+    .split('\n')
+    .slice(1);
   const d = lines[0].split(',').length;
   const data = new Float64Array(lines.length * d);
   lines.forEach((l, i) => l.split(',').forEach((v, k) => (data[i * d + k] = Number(v))));
@@ -191,9 +211,11 @@ async function scenarios(): Promise<void> {
     const wall = (Date.now() - t0) / 1000;
     const dg = map.diagnostics();
     if (method === 'linear') linearAfter = dg.energyAfter!;
-    console.log(`${label.padEnd(25)} | ${dg.energyBefore!.toFixed(3).padStart(13)} | ${dg.energyAfter!.toFixed(3).padStart(12)} | ` +
-      `${(dg.energyAfter! / linearAfter).toFixed(2).padStart(14)} | ${String(dg.convergence?.iterations ?? '-').padStart(5)} | ` +
-        `${wall.toFixed(1).padStart(6)} | ${load()}`);
+    console.log(
+      `${label.padEnd(25)} | ${dg.energyBefore!.toFixed(3).padStart(13)} | ${dg.energyAfter!.toFixed(3).padStart(12)} | ` +
+        `${(dg.energyAfter! / linearAfter).toFixed(2).padStart(14)} | ${String(dg.convergence?.iterations ?? '-').padStart(5)} | ` +
+        `${wall.toFixed(1).padStart(6)} | ${load()}`,
+    );
     map.dispose();
   }
 }

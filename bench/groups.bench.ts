@@ -52,5 +52,7 @@ for (const method of ['quantile', 'step', 'ordinal']) {
     const m = fitMapSync(method, s.sample, t.sample);
     m.apply(values);
   });
-  console.log(`  ${method.padEnd(9)} by group ${grouped.toFixed(1)} ms (goal <= 1000 ms: ${grouped <= 1000 ? 'met' : 'NOT met'}); one fit on all rows ${pooled.toFixed(1)} ms; ratio ${(grouped / pooled).toFixed(1)}x; load ${load()}`);
+  console.log(
+    `  ${method.padEnd(9)} by group ${grouped.toFixed(1)} ms (goal <= 1000 ms: ${grouped <= 1000 ? 'met' : 'NOT met'}); one fit on all rows ${pooled.toFixed(1)} ms; ratio ${(grouped / pooled).toFixed(1)}x; load ${load()}`,
+  );
 }

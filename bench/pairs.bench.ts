@@ -31,7 +31,10 @@ function bellAndSkew(n: number, d: number, seed: number): [Points, Points] {
   const r = rng(seed);
   const x = new Float64Array(n * d).map(() => r() + r() + r() - 1.5);
   const y = new Float64Array(n * d).map((_, t) => 2 * r() ** 2 + (t % d) + 1);
-  return [{ n, d, data: x }, { n, d, data: y }];
+  return [
+    { n, d, data: x },
+    { n, d, data: y },
+  ];
 }
 
 const d = 3;
@@ -41,7 +44,12 @@ const cold = process.argv.includes('--cold');
   const [x, y] = bellAndSkew(200, d, 1);
   findPairs(x, y); // warm up the JIT
 }
-console.log(`pairs, d = ${d}; load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
+console.log(
+  `pairs, d = ${d}; load average ${os
+    .loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ')}`,
+);
 console.log('data          n    wall s   cpu s   augmenting paths   W2^2          cold wall s   cold / warm   load');
 const walls = new Map<number, number[]>();
 for (const n of sizes) {
@@ -71,4 +79,6 @@ for (const n of sizes) {
   }
 }
 for (const [n, w] of walls) console.log(`n = ${n}: worst ${Math.max(...w).toFixed(2)} s wall over ${w.length} data sets`);
-console.log('wall s, cpu s: findPairs (standardise, table, auction prices, exact Jonker-Volgenant); cold: findPairs with coldStart (no auction prices), the same optimum.');
+console.log(
+  'wall s, cpu s: findPairs (standardise, table, auction prices, exact Jonker-Volgenant); cold: findPairs with coldStart (no auction prices), the same optimum.',
+);

@@ -21,7 +21,6 @@ import type { Sample } from '../src/engine/points';
 import { quantileMethod } from '../src/engine/quantile/quantile-method';
 import { Random } from '../src/engine/stats/random';
 
-
 function normals(n: number, seed: number, mean: number, sd: number, lognormal = false): Float64Array {
   const random = new Random(seed);
   const r = () => random.uniform();
@@ -196,8 +195,10 @@ function benchB(): void {
   const maps: number[] = [];
   for (let r = 0; r < 3; r++) maps.push(time(() => fitApply(src, tgt)));
   const m = median(maps);
-  console.log(`(b) n = m = 100,000; workbook route timed on the first ${timed} values and scaled linearly to ${n} (x${n / timed}); load average ` +
-    `${before} before, ${load()} after`);
+  console.log(
+    `(b) n = m = 100,000; workbook route timed on the first ${timed} values and scaled linearly to ${n} (x${n / timed}); load average ` +
+      `${before} before, ${load()} after`,
+  );
   console.table([
     { step: `workbook route, ${timed} values (measured)`, ms: +wb.toFixed(1) },
     { step: `workbook route, ${n} values (scaled)`, ms: +scaled.toFixed(0) },

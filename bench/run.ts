@@ -13,7 +13,10 @@ const dir = __dirname;
 const filter = (process.argv[2] ?? '').trim().toLowerCase();
 /** Arguments after the filter go to every chosen benchmark (npm run bench -- zoo --half tune). */
 const passOn = process.argv.slice(3);
-const all = fs.readdirSync(dir).filter((f) => f.endsWith('.bench.ts')).sort();
+const all = fs
+  .readdirSync(dir)
+  .filter((f) => f.endsWith('.bench.ts'))
+  .sort();
 const chosen = all.filter((f) => f.toLowerCase().includes(filter));
 
 if (chosen.length === 0) {

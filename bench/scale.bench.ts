@@ -151,7 +151,9 @@ function loadAverage(): string {
 }
 
 function parent(): void {
-  console.log(`Scale benchmark: ${ROWS.toLocaleString('en-US')}-row column (quantile, step, ordinal), ${LINEAR_ROWS.toLocaleString('en-US')} x ${LINEAR_D} (linear); maps applied to fresh values; each scenario in its own process; load ${loadAverage()}`);
+  console.log(
+    `Scale benchmark: ${ROWS.toLocaleString('en-US')}-row column (quantile, step, ordinal), ${LINEAR_ROWS.toLocaleString('en-US')} x ${LINEAR_D} (linear); maps applied to fresh values; each scenario in its own process; load ${loadAverage()}`,
+  );
   const rows: string[][] = [['scenario', 'ms', 'sort ms', 'x sort', 'peak RSS MB', 'RSS before MB', 'heap before MB', 'heap after MB', 'outcome']];
   for (const s of ['quantile-engine', 'step-engine', 'ordinal-engine', 'quantile-cells', 'linear-engine']) {
     const r = runChild(s);

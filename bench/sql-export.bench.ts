@@ -28,7 +28,12 @@ async function main(): Promise<void> {
     return best / 1000;
   };
   const r = new Random(1);
-  console.log(`load average before: ${os.loadavg().map((v) => v.toFixed(2)).join(' ')}`);
+  console.log(
+    `load average before: ${os
+      .loadavg()
+      .map((v) => v.toFixed(2))
+      .join(' ')}`,
+  );
   const scan = await time('SELECT sum(a), sum(b) FROM t');
   console.log(`scan (sum of the plain columns)          ${scan.toFixed(3)} s`);
   for (const n of [50, 1000, 10000]) {
@@ -38,13 +43,24 @@ async function main(): Promise<void> {
     const K = (json.params as { columns: { xs: number[] }[] }).columns[0].xs.length;
     const { select } = mapToSql(json, { table: 't', columns: ['a'] });
     const secs = await time(`SELECT sum(a_mapped) FROM (${select}) AS q`);
-    console.log(`quantile, K = ${String(K).padEnd(6)} (${(select.length / 1024).toFixed(0).padStart(5)} KB SQL)  ${secs.toFixed(3)} s  ${(secs / scan).toFixed(1)}x the scan`);
+    console.log(
+      `quantile, K = ${String(K).padEnd(6)} (${(select.length / 1024).toFixed(0).padStart(5)} KB SQL)  ${secs.toFixed(3)} s  ${(secs / scan).toFixed(1)}x the scan`,
+    );
   }
-  const lin = await fitMap('linear', sample(Array.from({ length: 500 }, () => [r.normal(), r.normal() + r.uniform()])), sample(Array.from({ length: 500 }, () => [r.normal() * 3, r.uniform()])));
+  const lin = await fitMap(
+    'linear',
+    sample(Array.from({ length: 500 }, () => [r.normal(), r.normal() + r.uniform()])),
+    sample(Array.from({ length: 500 }, () => [r.normal() * 3, r.uniform()])),
+  );
   const le = mapToSql(lin.toJSON(), { table: 't', columns: ['a', 'b'] }).select;
   const ls = await time(`SELECT sum(a_mapped), sum(b_mapped) FROM (${le}) AS q`);
   console.log(`linear, 2 columns                        ${ls.toFixed(3)} s  ${(ls / scan).toFixed(1)}x the scan`);
-  console.log(`load average after: ${os.loadavg().map((v) => v.toFixed(2)).join(' ')}`);
+  console.log(
+    `load average after: ${os
+      .loadavg()
+      .map((v) => v.toFixed(2))
+      .join(' ')}`,
+  );
   conn.closeSync();
 }
 

@@ -96,7 +96,12 @@ export function knownTruth(d: number, seed = 1): KnownTruth {
     return { n: x.n, d, data: out };
   };
   return {
-    d, A, W, b, c, gradPhi,
+    d,
+    A,
+    W,
+    b,
+    c,
+    gradPhi,
     source: (n, s) => gaussianRows(n, d, s),
     target: (n, s) => gradPhi(gaussianRows(n, d, s)),
   };

@@ -25,7 +25,12 @@ function median(xs: number[]): number {
 }
 
 async function main(): Promise<void> {
-  console.log(`bench zoo, ${half} half (${families.join(', ')}), n = m = ${n}, 2,000 fresh test points; load average ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
+  console.log(
+    `bench zoo, ${half} half (${families.join(', ')}), n = m = ${n}, 2,000 fresh test points; load average ${os
+      .loadavg()
+      .map((l) => l.toFixed(2))
+      .join(' ')}`,
+  );
   for (const f of families) console.log(`  ${f.padEnd(9)} ${FAMILY_NOTES[f]}`);
   for (const d of dims) {
     const summary = new Map<string, { uvp: number[]; secs: number[]; vsLinear: number[] }>();
@@ -55,7 +60,9 @@ async function main(): Promise<void> {
         s.secs.push(secs);
         s.vsLinear.push(linear / uvp);
         summary.set(m, s);
-        console.log(`${f.padEnd(11)}${m.padEnd(15)}${uvp.toFixed(2).padStart(8)}  ${secs.toFixed(1).padStart(6)}   ${(linear / uvp).toFixed(1).padStart(8)}x         ${warnings.join(', ')}`);
+        console.log(
+          `${f.padEnd(11)}${m.padEnd(15)}${uvp.toFixed(2).padStart(8)}  ${secs.toFixed(1).padStart(6)}   ${(linear / uvp).toFixed(1).padStart(8)}x         ${warnings.join(', ')}`,
+        );
       }
     }
     console.log(`worst and median over ${families.length} families at d = ${d}:`);
@@ -66,7 +73,12 @@ async function main(): Promise<void> {
       );
     }
   }
-  console.log(`load average at the end ${os.loadavg().map((l) => l.toFixed(2)).join(' ')}`);
+  console.log(
+    `load average at the end ${os
+      .loadavg()
+      .map((l) => l.toFixed(2))
+      .join(' ')}`,
+  );
 }
 
 main().catch((e) => {

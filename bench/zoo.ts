@@ -132,7 +132,7 @@ function shapeOf(family: FamilyName, d: number): (n: number, seed: number) => Po
         }
         case 'skew': {
           // exp(0.75 Z) has mean exp(0.28125); centred so the cloud sits near the origin.
-          const mean = Math.exp(0.75 * 0.75 / 2);
+          const mean = Math.exp((0.75 * 0.75) / 2);
           for (let k = 0; k < d; k++) row[k] = Math.exp(0.75 * r.normal()) - mean;
           break;
         }

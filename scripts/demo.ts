@@ -31,8 +31,10 @@ export async function runDemo(outDir: string = OUTPUT_DIR, log: (line: string) =
     const summary = summariseFormulas(r.formulas);
     errors += summary.errors.length;
     log('');
-    log(`${d.title}: ${d.file}  (${r.formulas.length} formulas, ${(r.elapsedMs / 1000).toFixed(1)} ` +
-      `s${r.passes > 1 ? `, ${r.passes} passes: waited for background fits` : ''})`);
+    log(
+      `${d.title}: ${d.file}  (${r.formulas.length} formulas, ${(r.elapsedMs / 1000).toFixed(1)} ` +
+        `s${r.passes > 1 ? `, ${r.passes} passes: waited for background fits` : ''})`,
+    );
     for (const line of formatSummary(summary)) log(line);
     if (d.compareOn) for (const line of sameRowsComparison(summary, r.values, d.compareOn)) log(line);
     const plots: string[] = [];
@@ -43,9 +45,11 @@ export async function runDemo(outDir: string = OUTPUT_DIR, log: (line: string) =
     log(`  wrote ${path.relative(process.cwd(), out)} and plots ${plots.join(', ')}`);
   }
   log('');
-  log(`Done in ${((Date.now() - t0) / 1000).toFixed(1)} s; ` +
-    `${errors === 0 ? 'every formula calculated' : `${errors} formula${errors === 1 ? '' : 's'} gave errors (see above)`}. Open the .xlsx files ` +
-      `in demo-output/ to see the formulas with their results; the .svg plots open in any browser.`);
+  log(
+    `Done in ${((Date.now() - t0) / 1000).toFixed(1)} s; ` +
+      `${errors === 0 ? 'every formula calculated' : `${errors} formula${errors === 1 ? '' : 's'} gave errors (see above)`}. Open the .xlsx files ` +
+      `in demo-output/ to see the formulas with their results; the .svg plots open in any browser.`,
+  );
   return errors;
 }
 
@@ -69,7 +73,9 @@ function sameRowsComparison(
     if (!map) continue;
     try {
       const c = compareOn(map, source, target);
-      lines.push(`      ${map.method.padEnd(12)} energy distance ${short(c.energyBefore)} -> ${short(c.energyAfter)}   largest KS after ${short(c.ksMaxAfter)}`);
+      lines.push(
+        `      ${map.method.padEnd(12)} energy distance ${short(c.energyBefore)} -> ${short(c.energyAfter)}   largest KS after ${short(c.ksMaxAfter)}`,
+      );
     } catch (e) {
       lines.push(`      ${map.method.padEnd(12)} not compared: ${(e as Error).message}`);
     }
@@ -82,14 +88,16 @@ function sameRowsComparison(
 /** The row note of a comparison on these rows, or '' when there are none. */
 function compareOnNote(source: { n: number; d: number }, target: { n: number; d: number }): string {
   const sub = source.d > 1 && (source.n > COMPARISON_MAX_ROWS || target.n > COMPARISON_MAX_ROWS);
-  return sub ? `energy distances on a seeded subsample of ${COMPARISON_MAX_ROWS.toLocaleString('en-US')} rows per side (seed ${COMPARISON_SEED}), the same rows for every map; KS on every row` : '';
+  return sub
+    ? `energy distances on a seeded subsample of ${COMPARISON_MAX_ROWS.toLocaleString('en-US')} rows per side (seed ${COMPARISON_SEED}), the same rows for every map; KS on every row`
+    : '';
 }
 
 if (require.main === module) {
   runDemo().then(
     (errors) => process.exit(errors === 0 ? 0 : 1),
     (e) => {
-      console.error(e instanceof Error ? e.stack ?? e.message : String(e));
+      console.error(e instanceof Error ? (e.stack ?? e.message) : String(e));
       process.exit(1);
     },
   );

@@ -90,15 +90,18 @@ export function comparisonRows(
 export function compareOn(map: TransportMap, source: Sample, target: Sample): Comparisons {
   const fn = 'compareOn';
   checkSameColumns(source, target, fn);
-  if (source.d !== map.d) throw new RemapError(`${fn}: the rows have ${source.d} columns but the ${map.method} map takes ${map.d}; give rows with the map's columns.`);
-  if (source.n < 1 || target.n < 1) throw new RemapError(`${fn}: the source has ${source.n} rows and the target ${target.n}; give at least one row on each side.`);
+  if (source.d !== map.d)
+    throw new RemapError(`${fn}: the rows have ${source.d} columns but the ${map.method} map takes ${map.d}; give rows with the map's columns.`);
+  if (source.n < 1 || target.n < 1)
+    throw new RemapError(`${fn}: the source has ${source.n} rows and the target ${target.n}; give at least one row on each side.`);
   checkFinite(source, 'source', fn);
   checkFinite(target, 'target', fn);
   let mapped: Points;
   try {
     mapped = map.apply(source);
   } catch (e) {
-    if (e instanceof RemapError) throw new RemapError(`${fn}: the ${map.method} map cannot map these rows (${e.message}); compare it on its own fitting rows instead.`, e.kind);
+    if (e instanceof RemapError)
+      throw new RemapError(`${fn}: the ${map.method} map cannot map these rows (${e.message}); compare it on its own fitting rows instead.`, e.kind);
     throw e;
   }
   return compareFit(source, source.weights, mapped, target, target.weights, 'rows given');

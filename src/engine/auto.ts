@@ -36,18 +36,28 @@ export function chooseMethod(source: Points, target: Points, settings: Readonly<
   const n = Math.min(source.n, target.n);
   if (d === 1) return { method: 'quantile', reason: 'One column: exact quantile matching is the optimal monotone map.' };
   if (!explicit) {
-    return { method: 'linear', reason: 'Several columns and no method given: the linear (Gaussian) map, which matches means and covariances; choose entropic or gradient-net to match the whole joint shape.' };
+    return {
+      method: 'linear',
+      reason:
+        'Several columns and no method given: the linear (Gaussian) map, which matches means and covariances; choose entropic or gradient-net to match the whole joint shape.',
+    };
   }
   const has = (m: MethodName) => listMethods().some((s) => s.name === m);
   if (n < 10 * d) {
-    return { method: 'linear', reason: `Only ${n} rows for ${d} columns (fewer than 10 per column): the linear map, since there are too few rows to estimate more than means and covariances.` };
+    return {
+      method: 'linear',
+      reason: `Only ${n} rows for ${d} columns (fewer than 10 per column): the linear map, since there are too few rows to estimate more than means and covariances.`,
+    };
   }
   if (has('entropic') && source.n * target.n <= ENTROPIC_MAX_PAIRS && d <= ENTROPIC_MAX_D) {
     return { method: 'entropic', reason: `${source.n} x ${target.n} rows in ${d} columns: the entropic map fits in seconds and matches the joint shape.` };
   }
   const budget = timeBudgetOf(settings);
   if (has('gradient-net') && budget >= 10) {
-    return { method: 'gradient-net', reason: `${source.n} x ${target.n} rows${d > ENTROPIC_MAX_D ? ` in ${d} columns` : ''} is too large for the entropic method: a gradient network trained in minibatches (time budget ${budget} s).` };
+    return {
+      method: 'gradient-net',
+      reason: `${source.n} x ${target.n} rows${d > ENTROPIC_MAX_D ? ` in ${d} columns` : ''} is too large for the entropic method: a gradient network trained in minibatches (time budget ${budget} s).`,
+    };
   }
   return { method: 'linear', reason: 'The data is too large for the entropic method and there is no time budget for training: the linear map.' };
 }

@@ -169,7 +169,9 @@ export abstract class BaseMap implements TransportMap {
 
   private checkShape(x: Points, verb: string): void {
     if (x.d !== this.d) {
-      throw new RemapError(`${verb}: the values have ${x.d} column${x.d === 1 ? '' : 's'} but the ${this.method} map was fitted on ${this.d}; give values with ${this.d} column${this.d === 1 ? '' : 's'}.`);
+      throw new RemapError(
+        `${verb}: the values have ${x.d} column${x.d === 1 ? '' : 's'} but the ${this.method} map was fitted on ${this.d}; give values with ${this.d} column${this.d === 1 ? '' : 's'}.`,
+      );
     }
   }
 }

@@ -2,7 +2,24 @@
 
 export { RemapError, isRemapError, type RemapErrorKind } from './errors';
 export { points, column, sample, columnOf, toRows, type Points, type Sample } from './points';
-export type { TransportMap, Mapped, CostReport, CostBound, LabelledCost, ComparisonRows, RowCounts, Diagnostics, Warning, WarningCode, Convergence, MapJSON, FitRecord, FitContext, Progress, MethodName } from './map';
+export type {
+  TransportMap,
+  Mapped,
+  CostReport,
+  CostBound,
+  LabelledCost,
+  ComparisonRows,
+  RowCounts,
+  Diagnostics,
+  Warning,
+  WarningCode,
+  Convergence,
+  MapJSON,
+  FitRecord,
+  FitContext,
+  Progress,
+  MethodName,
+} from './map';
 export type { MethodSpec } from './method';
 export { BaseMap, sizeWarnings, smallSampleWarning, smallSampleThreshold, ESTIMATE_REMINDER, type MapHeader } from './base';
 export { extrapolationWarning, outsideText, outsideBothTails, OUTSIDE_FITTED_RANGE } from './outside';
@@ -55,7 +72,15 @@ export { GRADIENT_NET_SETTINGS } from './gradient-net/settings';
 export type { NetworkParams } from './gradient-net/network-params';
 
 export { fitGroupedMap, fitGroupedMapSync, type GroupedFitOptions } from './groups/fit-grouped';
-export { GroupedMap, type GroupEntry, type GroupReport, type GroupedReport, type GroupedMapJSON, type GroupFallback, type GroupSizes } from './groups/grouped-map';
+export {
+  GroupedMap,
+  type GroupEntry,
+  type GroupReport,
+  type GroupedReport,
+  type GroupedMapJSON,
+  type GroupFallback,
+  type GroupSizes,
+} from './groups/grouped-map';
 export { parseGroupedMapJSON, checkGroupedMapJSON, restoreGroupedMap, isGroupedMapJSON } from './groups/grouped-json';
 export { groupKey, groupRows, type GroupLabel, type GroupRows } from './groups/group-labels';
 export { kishRows } from './groups/effective-rows';

@@ -76,33 +76,50 @@ function checkFitRecord(fitted: Record<string, unknown>, bad: (what: string) => 
   const cost = fitted.cost as Record<string, unknown>;
   if (!isPlainObject(cost) || typeof cost.w2Squared !== 'number') bad('"fitted.cost" is missing');
   if (!COST_KINDS.has(cost.kind as string)) bad('"fitted.cost.kind" is not a kind of cost Remap reports');
-  if (!((cost.w2Squared as number) >= 0) || typeof cost.w2 !== 'number' || !((cost.w2 as number) >= 0)) bad('"fitted.cost" does not hold a squared W2 and W2 of at least 0');
+  if (!((cost.w2Squared as number) >= 0) || typeof cost.w2 !== 'number' || !((cost.w2 as number) >= 0))
+    bad('"fitted.cost" does not hold a squared W2 and W2 of at least 0');
   if (cost.w1 !== undefined && typeof cost.w1 !== 'number') bad('"fitted.cost.w1" is not a number');
-  if (cost.perColumn !== undefined && !(Array.isArray(cost.perColumn) && cost.perColumn.every((v) => typeof v === 'number'))) bad('"fitted.cost.perColumn" is not a list of numbers');
+  if (cost.perColumn !== undefined && !(Array.isArray(cost.perColumn) && cost.perColumn.every((v) => typeof v === 'number')))
+    bad('"fitted.cost.perColumn" is not a list of numbers');
   if (typeof cost.note !== 'string') bad('"fitted.cost.note" is not text');
   if (cost.bound !== undefined && !COST_BOUNDS.has(cost.bound as string)) bad('"fitted.cost.bound" is not exact, lower or estimate');
   if (cost.label !== undefined && typeof cost.label !== 'string') bad('"fitted.cost.label" is not text');
   if (cost.units !== undefined && cost.units !== 'raw' && cost.units !== 'standardised') bad('"fitted.cost.units" is not raw or standardised');
   const eff = fitted.effectiveSize as Record<string, unknown> | undefined;
-  if (eff !== undefined && !(isPlainObject(eff) && typeof eff.source === 'number' && typeof eff.target === 'number')) bad('"fitted.effectiveSize" is not a pair of numbers');
+  if (eff !== undefined && !(isPlainObject(eff) && typeof eff.source === 'number' && typeof eff.target === 'number'))
+    bad('"fitted.effectiveSize" is not a pair of numbers');
   const cmp = fitted.comparison as Record<string, unknown> | undefined;
   if (cmp !== undefined) {
     const pair = (v: unknown) => isPlainObject(v) && isCount(v.source) && isCount(v.target);
-    if (!isPlainObject(cmp) || (cmp.basis !== 'fitting rows' && cmp.basis !== 'rows given') || !pair(cmp.ks) || !pair(cmp.energy) || typeof cmp.note !== 'string' || !(cmp.seed === null || isCount(cmp.seed))) {
+    if (
+      !isPlainObject(cmp) ||
+      (cmp.basis !== 'fitting rows' && cmp.basis !== 'rows given') ||
+      !pair(cmp.ks) ||
+      !pair(cmp.energy) ||
+      typeof cmp.note !== 'string' ||
+      !(cmp.seed === null || isCount(cmp.seed))
+    ) {
       bad('"fitted.comparison" does not say which rows the comparison used');
     }
   }
   for (const f of OPTIONAL_FIGURES) if (fitted[f] !== undefined && typeof fitted[f] !== 'number') bad(`"fitted.${f}" is not a number`);
   const c = fitted.convergence as Record<string, unknown> | undefined;
   if (c !== undefined) {
-    if (!isPlainObject(c) || !isCount(c.iterations) || typeof c.finalError !== 'number' || typeof c.converged !== 'boolean' || typeof c.criterion !== 'string') {
+    if (
+      !isPlainObject(c) ||
+      !isCount(c.iterations) ||
+      typeof c.finalError !== 'number' ||
+      typeof c.converged !== 'boolean' ||
+      typeof c.criterion !== 'string'
+    ) {
       bad('"fitted.convergence" does not hold iterations, finalError, converged and criterion');
     }
   }
   if (!Array.isArray(fitted.warnings)) bad('"fitted.warnings" is not a list');
   for (const w of fitted.warnings as unknown[]) {
     const r = w as Record<string, unknown>;
-    if (!isPlainObject(r) || typeof r.code !== 'string' || typeof r.message !== 'string' || typeof r.action !== 'string') bad('a warning in "fitted.warnings" lacks its code, message or action');
+    if (!isPlainObject(r) || typeof r.code !== 'string' || typeof r.message !== 'string' || typeof r.action !== 'string')
+      bad('a warning in "fitted.warnings" lacks its code, message or action');
   }
 }
 

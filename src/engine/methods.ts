@@ -131,7 +131,10 @@ export function fitMapSync(
   if (method.background) refuse();
   const r = startFit(name, source, target, rawSettings, ctx);
   if (r instanceof Promise) {
-    r.then((m) => m.dispose(), () => undefined);
+    r.then(
+      (m) => m.dispose(),
+      () => undefined,
+    );
     refuse();
   }
   return r as TransportMap;

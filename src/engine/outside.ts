@@ -27,7 +27,8 @@ export const OUTSIDE_FITTED_RANGE: Readonly<Record<MethodName, string | { readon
   entropic:
     "every result is a weighted average of target rows, so it stays inside the target's convex hull: extreme values are pulled in towards the target's most extreme rows, which caps tail figures such as value at risk",
   'gradient-net': {
-    clamp: 'values outside the fitted source range are first clamped to that range column by column, so they map like the nearest point on its edge (tails=clamp)',
+    clamp:
+      'values outside the fitted source range are first clamped to that range column by column, so they map like the nearest point on its edge (tails=clamp)',
     linear: 'the fitted network is evaluated beyond the fitted source range as it stands, continuing its gradient smoothly (tails=linear)',
   },
 });

@@ -72,7 +72,10 @@ export function resolveSettings(method: string, specs: readonly SettingSpec[], r
 
 /** `Max-Iterations` -> `max_iterations`. */
 export function normaliseName(name: string): string {
-  return name.trim().toLowerCase().replace(/[-\s]+/g, '_');
+  return name
+    .trim()
+    .toLowerCase()
+    .replace(/[-\s]+/g, '_');
 }
 
 function coerceSetting(method: string, spec: SettingSpec, value: unknown): SettingValue {
@@ -155,7 +158,11 @@ export type SettingsOf<S extends readonly SettingSpec[]> = { readonly [K in S[nu
  * @throws RemapError naming the setting and its allowed values, for a value outside its spec.
  * @example settingsOf(LINEAR_SETTINGS, { ridge: 0.5, seed: 7 }) // { ridge: 0.5, units: 'standardised' }
  */
-export function settingsOf<const S extends readonly SettingSpec[]>(specs: S, settings: Readonly<Record<string, unknown>>, method = 'this method'): SettingsOf<S> {
+export function settingsOf<const S extends readonly SettingSpec[]>(
+  specs: S,
+  settings: Readonly<Record<string, unknown>>,
+  method = 'this method',
+): SettingsOf<S> {
   const own: Record<string, unknown> = {};
   const names = new Set(specs.map((s) => s.name));
   for (const [k, v] of Object.entries(settings)) {

@@ -36,7 +36,9 @@ export function checkFinite(p: Points, name: string, fn: string): void {
   const { data, d } = p;
   for (let j = 0; j < data.length; j++) {
     if (!Number.isFinite(data[j])) {
-      throw new RemapError(`${fn}: the ${name} has a non-finite number (${data[j]}) in row ${Math.floor(j / d) + 1}, column ${(j % d) + 1}; remove or replace it.`);
+      throw new RemapError(
+        `${fn}: the ${name} has a non-finite number (${data[j]}) in row ${Math.floor(j / d) + 1}, column ${(j % d) + 1}; remove or replace it.`,
+      );
     }
   }
 }
@@ -44,7 +46,9 @@ export function checkFinite(p: Points, name: string, fn: string): void {
 /** @throws RemapError unless both samples have the same number of columns. */
 export function checkSameColumns(source: Points, target: Points, fn: string): void {
   if (source.d !== target.d) {
-    throw new RemapError(`${fn}: the source has ${source.d} column${source.d === 1 ? '' : 's'} and the target ${target.d}; give both the same columns in the same order.`);
+    throw new RemapError(
+      `${fn}: the source has ${source.d} column${source.d === 1 ? '' : 's'} and the target ${target.d}; give both the same columns in the same order.`,
+    );
   }
 }
 
@@ -72,10 +76,16 @@ export function checkScale(p: Points, name: string, fn: string): void {
       if (v > hi) hi = v;
     }
     if (Math.max(Math.abs(lo), Math.abs(hi)) > MAX_ABS_VALUE) {
-      throw new RemapError(`${fn}: column ${k + 1} of the ${name} holds values as large as ${(Math.abs(lo) > Math.abs(hi) ? lo : hi).toPrecision(3)}, too large to square in double precision; rescale the columns (for example to thousands or millions) and fit again.`, 'num');
+      throw new RemapError(
+        `${fn}: column ${k + 1} of the ${name} holds values as large as ${(Math.abs(lo) > Math.abs(hi) ? lo : hi).toPrecision(3)}, too large to square in double precision; rescale the columns (for example to thousands or millions) and fit again.`,
+        'num',
+      );
     }
     if (hi > lo && hi - lo < MIN_SPREAD) {
-      throw new RemapError(`${fn}: column ${k + 1} of the ${name} varies by only ${(hi - lo).toPrecision(3)}, too little to square in double precision; rescale the columns (for example multiply them by 1e6) and fit again.`, 'num');
+      throw new RemapError(
+        `${fn}: column ${k + 1} of the ${name} varies by only ${(hi - lo).toPrecision(3)}, too little to square in double precision; rescale the columns (for example multiply them by 1e6) and fit again.`,
+        'num',
+      );
     }
   }
 }

@@ -7,8 +7,18 @@ import { ksStatistic } from '../../src/engine/stats/ks';
 import { columnOf, points } from '../../src/engine/points';
 
 describe('compareFit(source, ws, mapped, target, wt) records energy before/after and the largest KS after', () => {
-  const source = points([[0, 0], [1, 0], [0, 1], [1, 1]]);
-  const target = points([[3, 3], [5, 3], [3, 6], [5, 6]]);
+  const source = points([
+    [0, 0],
+    [1, 0],
+    [0, 1],
+    [1, 1],
+  ]);
+  const target = points([
+    [3, 3],
+    [5, 3],
+    [3, 6],
+    [5, 6],
+  ]);
 
   test('a mapped sample equal to the target has energyAfter 0 and ksMaxAfter 0', () => {
     const c = compareFit(source, null, target, target, null);
@@ -19,7 +29,12 @@ describe('compareFit(source, ws, mapped, target, wt) records energy before/after
   });
 
   test('ksMaxAfter is the largest per-column KS statistic, with weights', () => {
-    const mapped = points([[3, 3], [5, 3], [3, 6], [6, 6]]);
+    const mapped = points([
+      [3, 3],
+      [5, 3],
+      [3, 6],
+      [6, 6],
+    ]);
     const w = Float64Array.from([1, 2, 1, 1]);
     const c = compareFit(source, w, mapped, target, null);
     const ks = Math.max(ksStatistic(columnOf(mapped, 0), columnOf(target, 0), w), ksStatistic(columnOf(mapped, 1), columnOf(target, 1), w));

@@ -2,9 +2,23 @@ import { labelCost } from '../../src/engine/cost-label';
 import { fitMapSync } from '../../src/engine/methods';
 import { sample } from '../../src/engine/points';
 
-describe('cost labels: exact only where the figure is the samples\' squared W2', () => {
-  const x = [[0, 0], [1, 2], [2, 1], [3, 3], [4, 0], [1, 1]];
-  const y = [[0, 1], [2, 0], [5, 1], [1, 4], [3, 2], [2, 2]];
+describe("cost labels: exact only where the figure is the samples' squared W2", () => {
+  const x = [
+    [0, 0],
+    [1, 2],
+    [2, 1],
+    [3, 3],
+    [4, 0],
+    [1, 1],
+  ];
+  const y = [
+    [0, 1],
+    [2, 0],
+    [5, 1],
+    [1, 4],
+    [3, 2],
+    [2, 2],
+  ];
 
   test('one column with quantile, step or ordinal is exact; several columns are a lower bound', () => {
     for (const m of ['quantile', 'step', 'ordinal']) {
@@ -19,7 +33,8 @@ describe('cost labels: exact only where the figure is the samples\' squared W2',
     const joint = fitMapSync('pairs', sample(x), sample(y)).cost();
     const perColumn = fitMapSync('quantile', sample(x), sample(y)).cost();
     expect(joint.bound).toBe('exact');
-    // Source: the lower-bound argument above; the joint value is the assignment optimum found by hand-checkable enumeration in test/reference/assignment.test.ts
+    // Source: the lower-bound argument above; the joint value is the assignment optimum found by hand-checkable
+    // enumeration in test/reference/assignment.test.ts
     expect(perColumn.w2Squared).toBeLessThanOrEqual(joint.w2Squared + 1e-12);
   });
 
@@ -32,7 +47,7 @@ describe('cost labels: exact only where the figure is the samples\' squared W2',
     expect(bures.w2Squared).toBeLessThanOrEqual(joint.w2Squared + 1e-12);
   });
 
-  test('kinds a method leaves unlabelled get their label; a method\'s own label is kept', () => {
+  test("kinds a method leaves unlabelled get their label; a method's own label is kept", () => {
     // Source: design choice (the defaults in cost-label.ts)
     expect(labelCost({ kind: 'sinkhorn-divergence', w2Squared: 1, w2: 1, note: '' }).bound).toBe('estimate');
     expect(labelCost({ kind: 'mapped', w2Squared: 1, w2: 1, note: '' }).label).toMatch(/not a distance to the target/);

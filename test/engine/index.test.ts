@@ -16,7 +16,8 @@ describe('the engine is pure', () => {
 
   test('no engine file imports Node built-ins, Office, the DOM layer or the layers above it', () => {
     // Source: DEVELOPERS.md, "Conventions": the engine is pure numbers: no Office, no DOM, no Node-only APIs
-    const forbidden = /from '(fs|path|os|child_process|worker_threads|node:[a-z_]+|\.\.\/\.\.\/(functions|cli|taskpane|workbook|headless)[^']*|\.\.\/(functions|cli|taskpane|workbook|headless)[^']*)'/;
+    const forbidden =
+      /from '(fs|path|os|child_process|worker_threads|node:[a-z_]+|\.\.\/\.\.\/(functions|cli|taskpane|workbook|headless)[^']*|\.\.\/(functions|cli|taskpane|workbook|headless)[^']*)'/;
     const offenders = files.filter((f) => forbidden.test(fs.readFileSync(f, 'utf8')));
     expect(offenders.map((f) => path.relative(root, f))).toEqual([]);
   });

@@ -98,7 +98,11 @@ describe('parseMapJSON reads saved maps as data and checks them', () => {
     const text = await savedText();
     const g = globalThis as Record<string, unknown>;
     delete g.remapPwned;
-    for (const payload of ['"(() => { globalThis.remapPwned = 1 })()"', '"<script>remapPwned=1</script>"', '"constructor.constructor(\'globalThis.remapPwned=1\')()"']) {
+    for (const payload of [
+      '"(() => { globalThis.remapPwned = 1 })()"',
+      '"<script>remapPwned=1</script>"',
+      '"constructor.constructor(\'globalThis.remapPwned=1\')()"',
+    ]) {
       const bad = text.replace('"format":"remap.map"', `"format":${payload}`);
       refusal(() => loads(bad));
       const bad2 = text.replace(/"xs":\[[^\]]*\]/, `"xs":${payload}`);

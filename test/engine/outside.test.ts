@@ -21,7 +21,7 @@ describe('what happens outside the fitted range, per method', () => {
     expect(outsideText('quantile', {})).toMatch(/clamped/);
   });
 
-  test('the warning belongs to one call: it counts that call\'s rows and the map keeps nothing', () => {
+  test("the warning belongs to one call: it counts that call's rows and the map keeps nothing", () => {
     const map = fitMapSync('quantile', sample([0, 1, 2, 3]), sample([0, 10, 20, 30]));
     const first = map.apply(column([-5, 1, 2, 9]));
     const report = JSON.stringify(map.diagnostics());

@@ -14,7 +14,9 @@ describe('settings', () => {
   });
 
   test('an unknown setting is an error that lists the known ones', () => {
-    expect(() => resolveSettings('entropic', specs, { epsilon: 1 })).toThrow('Unknown setting "epsilon" for method entropic. Known settings: tails, eps, seed, debias.');
+    expect(() => resolveSettings('entropic', specs, { epsilon: 1 })).toThrow(
+      'Unknown setting "epsilon" for method entropic. Known settings: tails, eps, seed, debias.',
+    );
   });
 
   test('out-of-range, non-integer and non-choice values are errors naming the setting', () => {
@@ -39,7 +41,7 @@ describe('settings', () => {
   });
 });
 
-describe('settingsOf(specs, settings) is the typed view of one method\'s own settings', () => {
+describe("settingsOf(specs, settings) is the typed view of one method's own settings", () => {
   const SPECS = [
     { name: 'ridge', type: 'number', default: 0, min: 0, describe: 'r' },
     { name: 'mode', type: 'choice', default: 'a', choices: ['a', 'b'], describe: 'm' },

@@ -18,9 +18,36 @@ describe('validate', () => {
     // Source: IEEE 754 doubles: the largest is about 1.8e308, the smallest normal about 2.2e-308
     expect(MAX_ABS_VALUE ** 2).toBeLessThan(Number.MAX_VALUE);
     expect(MIN_SPREAD ** 2).toBeGreaterThan(2.2250738585072014e-308);
-    expect(() => checkScale(sample([[1e151, 0], [0, 1]]), 'source', 'fit')).toThrow(/column 1 of the source holds values as large as 1\.00e\+151.*rescale/);
-    expect(() => checkScale(sample([[1, 1e-300], [1, 2e-300]]), 'target', 'fit')).toThrow(/column 2 of the target varies by only 1\.00e-300.*rescale/);
-    expect(() => checkScale(sample([[5, 1], [5, 2]]), 'source', 'fit')).not.toThrow(); // a constant column is not a scale problem
+    expect(() =>
+      checkScale(
+        sample([
+          [1e151, 0],
+          [0, 1],
+        ]),
+        'source',
+        'fit',
+      ),
+    ).toThrow(/column 1 of the source holds values as large as 1\.00e\+151.*rescale/);
+    expect(() =>
+      checkScale(
+        sample([
+          [1, 1e-300],
+          [1, 2e-300],
+        ]),
+        'target',
+        'fit',
+      ),
+    ).toThrow(/column 2 of the target varies by only 1\.00e-300.*rescale/);
+    expect(() =>
+      checkScale(
+        sample([
+          [5, 1],
+          [5, 2],
+        ]),
+        'source',
+        'fit',
+      ),
+    ).not.toThrow(); // a constant column is not a scale problem
   });
 
   test('joint methods refuse data at 1e-300 scale with #NUM! instead of mapping everything to the mean', async () => {

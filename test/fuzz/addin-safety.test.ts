@@ -79,7 +79,11 @@ describe('taskpane.html content security policy', () => {
 
 describe('no eval or new Function', () => {
   test('our own modules (src/**/*.ts, bin, scripts) never call eval or new Function', () => {
-    const ours = [...files(path.join(ROOT, 'src'), /\.(ts|js)$/), ...files(path.join(ROOT, 'bin'), /\.js$/), ...files(path.join(ROOT, 'scripts'), /\.(ts|js)$/)];
+    const ours = [
+      ...files(path.join(ROOT, 'src'), /\.(ts|js)$/),
+      ...files(path.join(ROOT, 'bin'), /\.js$/),
+      ...files(path.join(ROOT, 'scripts'), /\.(ts|js)$/),
+    ];
     expect(ours.length).toBeGreaterThan(20);
     const hits = ours.filter((f) => EVAL.test(codeOnly(fs.readFileSync(f, 'utf8')))).map((f) => path.relative(ROOT, f));
     expect(hits).toEqual([]);
@@ -123,7 +127,9 @@ describe('manifest.xml permission', () => {
   test('asks for exactly one permission, ReadWriteDocument: the least that lets it write formulas, values, charts and custom XML parts', () => {
     expect(asked).toEqual(['ReadWriteDocument']);
     // the add-in does write to the workbook, so ReadDocument would not work
-    const workbookCode = files(path.join(ROOT, 'src', 'workbook'), /\.ts$/).map((f) => fs.readFileSync(f, 'utf8')).join('\n');
+    const workbookCode = files(path.join(ROOT, 'src', 'workbook'), /\.ts$/)
+      .map((f) => fs.readFileSync(f, 'utf8'))
+      .join('\n');
     expect(workbookCode).toMatch(/customXmlParts\.add|\.formulas\s*=|\.values\s*=/);
   });
 

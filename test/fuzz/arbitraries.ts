@@ -38,7 +38,9 @@ export async function assertProperty<T>(
   if (out.failed) throw new Error(await fc.asyncDefaultReportMessage(out));
   const floor = minRuns ?? Math.max(1, Math.ceil((opts.numRuns ?? numRuns) / 4));
   if (out.numRuns < floor) {
-    throw new Error(`The property ran only ${out.numRuns} of ${opts.numRuns} cases before its time limit of ${opts.interruptAfterTimeLimit} ms (floor ${floor}); the machine is too busy or the property too slow. Rerun, or raise the time limit.`);
+    throw new Error(
+      `The property ran only ${out.numRuns} of ${opts.numRuns} cases before its time limit of ${opts.interruptAfterTimeLimit} ms (floor ${floor}); the machine is too busy or the property too slow. Rerun, or raise the time limit.`,
+    );
   }
 }
 
@@ -130,14 +132,12 @@ export function range(d: number, opts: RangeOptions = {}): fc.Arbitrary<unknown[
 
 /** A clean numeric range (numbers only, n rows, d columns), for properties that need fits to succeed. */
 export function cleanRange(d: number, minRows: number, maxRows: number): fc.Arbitrary<number[][]> {
-  return fc
-    .integer({ min: -6, max: 6 })
-    .chain((exp) =>
-      fc.array(fc.array(fc.oneof(scaledNumber(exp), fc.integer({ min: -9, max: 9 })), { minLength: d, maxLength: d }), {
-        minLength: minRows,
-        maxLength: maxRows,
-      }),
-    );
+  return fc.integer({ min: -6, max: 6 }).chain((exp) =>
+    fc.array(fc.array(fc.oneof(scaledNumber(exp), fc.integer({ min: -9, max: 9 })), { minLength: d, maxLength: d }), {
+      minLength: minRows,
+      maxLength: maxRows,
+    }),
+  );
 }
 
 /** A weights column for `rows` rows: zeros, negatives, blanks, text, huge and tiny weights, or the wrong height. */

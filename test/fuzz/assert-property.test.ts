@@ -12,7 +12,19 @@ describe('assertProperty: a time limit that cuts a property short fails it', () 
   });
 
   test('a counterexample is reported, and a quick true property passes', async () => {
-    await expect(assertProperty(fc.property(fc.integer({ min: 0, max: 10 }), (x) => x < 5), 200, 5_000)).rejects.toThrow(/Counterexample/);
-    await expect(assertProperty(fc.property(fc.integer(), (x) => x === x), 50, 5_000)).resolves.toBeUndefined();
+    await expect(
+      assertProperty(
+        fc.property(fc.integer({ min: 0, max: 10 }), (x) => x < 5),
+        200,
+        5_000,
+      ),
+    ).rejects.toThrow(/Counterexample/);
+    await expect(
+      assertProperty(
+        fc.property(fc.integer(), (x) => x === x),
+        50,
+        5_000,
+      ),
+    ).resolves.toBeUndefined();
   });
 });

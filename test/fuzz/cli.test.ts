@@ -14,7 +14,9 @@ import { anyNumber, assertProperty, saysWhatToDo, scaledNumber, shape } from './
 import { runCli as run } from '../helpers/run-cli';
 
 const SLOW = new Set(['entropic', 'gradient-net']);
-const FAST = listMethods().map((m) => m.name).filter((n) => !SLOW.has(n));
+const FAST = listMethods()
+  .map((m) => m.name)
+  .filter((n) => !SLOW.has(n));
 
 let cases = 0;
 const tally = new Map<string, number>();
@@ -22,11 +24,22 @@ const requirementOnly = new Map<string, string>();
 const dbg = new Map<string, number>();
 afterAll(() => {
   // eslint-disable-next-line no-console
-  console.log(`fuzz (command line): ${cases} cases run; exit codes: ${[...tally.entries()].sort().map(([k, v]) => `${k}: ${v}`).join('; ')}`);
-  if (process.env.FUZZ_DEBUG) console.log([...dbg.entries()].sort((a, b) => b[1] - a[1]).slice(0, 25).map(([k, v]) => `${v} ${k}`).join('\n'));
+  console.log(
+    `fuzz (command line): ${cases} cases run; exit codes: ${[...tally.entries()]
+      .sort()
+      .map(([k, v]) => `${k}: ${v}`)
+      .join('; ')}`,
+  );
+  if (process.env.FUZZ_DEBUG)
+    console.log(
+      [...dbg.entries()]
+        .sort((a, b) => b[1] - a[1])
+        .slice(0, 25)
+        .map(([k, v]) => `${v} ${k}`)
+        .join('\n'),
+    );
   if (requirementOnly.size > 0) console.log(`messages that only state a requirement (review their wording):\n${[...requirementOnly.values()].join('\n')}`);
 });
-
 
 /** A CSV field: a number written as JavaScript or a person would, a blank, text, or a non-finite spelling. */
 const field: fc.Arbitrary<string> = fc.oneof(
@@ -61,9 +74,29 @@ function csv(cols: readonly string[]): fc.Arbitrary<string> {
     });
 }
 
-const flagValue = fc.oneof(fc.constantFrom('s.csv', 't.csv', 'm.json', 'x.csv', 'nope.csv', '', 'a', 'w', 'a,b', 'a,,b', '--source'), fc.string({ maxLength: 5 }));
-const method = fc.oneof({ arbitrary: fc.constantFrom(...FAST, 'auto'), weight: 6 }, { arbitrary: fc.constantFrom('', '__proto__', 'LINEAR', 'entropic;', 'x'), weight: 1 });
-const settings = fc.constantFrom(undefined, undefined, undefined, undefined, undefined, 'tails=linear', 'ridge=0.1', 'ridge=-1', '=', 'seed=7', '__proto__=1', 'constructor=1', 'bogus=1');
+const flagValue = fc.oneof(
+  fc.constantFrom('s.csv', 't.csv', 'm.json', 'x.csv', 'nope.csv', '', 'a', 'w', 'a,b', 'a,,b', '--source'),
+  fc.string({ maxLength: 5 }),
+);
+const method = fc.oneof(
+  { arbitrary: fc.constantFrom(...FAST, 'auto'), weight: 6 },
+  { arbitrary: fc.constantFrom('', '__proto__', 'LINEAR', 'entropic;', 'x'), weight: 1 },
+);
+const settings = fc.constantFrom(
+  undefined,
+  undefined,
+  undefined,
+  undefined,
+  undefined,
+  'tails=linear',
+  'ridge=0.1',
+  'ridge=-1',
+  '=',
+  'seed=7',
+  '__proto__=1',
+  'constructor=1',
+  'bogus=1',
+);
 
 /** Checks one run: exit code and stderr discipline, and finite numbers on success. */
 function judge(r: { code: number; out: string; err: string }, command: string, files: Record<string, string>): void {
@@ -88,7 +121,8 @@ function judge(r: { code: number; out: string; err: string }, command: string, f
   }
   if (command === 'cost') {
     const j = JSON.parse(r.out) as { w2_squared: unknown; w2: unknown };
-    if (typeof j.w2_squared !== 'number' || !Number.isFinite(j.w2_squared) || typeof j.w2 !== 'number' || !Number.isFinite(j.w2)) throw new Error(`cost: non-finite cost ${r.out}`);
+    if (typeof j.w2_squared !== 'number' || !Number.isFinite(j.w2_squared) || typeof j.w2 !== 'number' || !Number.isFinite(j.w2))
+      throw new Error(`cost: non-finite cost ${r.out}`);
   }
   if (command === 'fit') {
     const text = files['m.json'];
@@ -98,27 +132,38 @@ function judge(r: { code: number; out: string; err: string }, command: string, f
 
 describe('remap command line under hostile input', () => {
   test('fit, cost, apply, invert, report, methods: exit 0/1/2, one stderr line that says what to do on failure, finite numbers on success', async () => {
-    const arb = fc.record({
-      cols: fc.constantFrom(['a'], ['a'], ['a', 'b'], ['a', 'b'], ['a', 'b', 'w'], ['a', 'a'], ['a', 'b', 'c']),
-      tcols: fc.constantFrom('same', 'same', 'same', 'other'),
-      command: fc.constantFrom('fit', 'cost', 'apply', 'invert', 'report', 'methods', 'fit-apply', 'fit-apply', 'fit-invert', 'bogus', ''),
-      method,
-      settings,
-      columns: fc.constantFrom(undefined, undefined, undefined, undefined, undefined, 'a', 'a,b', 'b,a', 'zz', ','),
-      weights: fc.constantFrom(undefined, undefined, undefined, undefined, undefined, undefined, 'w', 'a', 'zz'),
-      tails: fc.constantFrom(undefined, undefined, undefined, 'linear', 'sideways'),
-      seed: fc.constantFrom(undefined, undefined, undefined, undefined, '7', '-1', 'x'),
-      extra: fc.oneof({ arbitrary: fc.constant([] as [string, string][]), weight: 3 }, { arbitrary: fc.array(fc.tuple(fc.constantFrom('--source', '--target', '--model', '--out', '--bogus', '--columns', 'stray', '--method=quantile', '--seed'), flagValue), { maxLength: 2 }), weight: 1 }),
-      model: fc.constantFrom('fitted', 'fitted', 'fitted', 'garbled', 'cut', 'missing'),
-      cut: fc.nat(),
-    }).chain((o) =>
-      fc.record({
-        o: fc.constant(o),
-        s: csv(o.cols),
-        t: csv(o.tcols === 'same' ? o.cols : ['b', 'c']),
-        x: csv(o.cols),
-      }),
-    );
+    const arb = fc
+      .record({
+        cols: fc.constantFrom(['a'], ['a'], ['a', 'b'], ['a', 'b'], ['a', 'b', 'w'], ['a', 'a'], ['a', 'b', 'c']),
+        tcols: fc.constantFrom('same', 'same', 'same', 'other'),
+        command: fc.constantFrom('fit', 'cost', 'apply', 'invert', 'report', 'methods', 'fit-apply', 'fit-apply', 'fit-invert', 'bogus', ''),
+        method,
+        settings,
+        columns: fc.constantFrom(undefined, undefined, undefined, undefined, undefined, 'a', 'a,b', 'b,a', 'zz', ','),
+        weights: fc.constantFrom(undefined, undefined, undefined, undefined, undefined, undefined, 'w', 'a', 'zz'),
+        tails: fc.constantFrom(undefined, undefined, undefined, 'linear', 'sideways'),
+        seed: fc.constantFrom(undefined, undefined, undefined, undefined, '7', '-1', 'x'),
+        extra: fc.oneof(
+          { arbitrary: fc.constant([] as [string, string][]), weight: 3 },
+          {
+            arbitrary: fc.array(
+              fc.tuple(fc.constantFrom('--source', '--target', '--model', '--out', '--bogus', '--columns', 'stray', '--method=quantile', '--seed'), flagValue),
+              { maxLength: 2 },
+            ),
+            weight: 1,
+          },
+        ),
+        model: fc.constantFrom('fitted', 'fitted', 'fitted', 'garbled', 'cut', 'missing'),
+        cut: fc.nat(),
+      })
+      .chain((o) =>
+        fc.record({
+          o: fc.constant(o),
+          s: csv(o.cols),
+          t: csv(o.tcols === 'same' ? o.cols : ['b', 'c']),
+          x: csv(o.cols),
+        }),
+      );
     await assertProperty(
       fc.asyncProperty(arb, async ({ o, s, t, x }) => {
         cases++;
@@ -152,21 +197,42 @@ describe('remap command line under hostile input', () => {
             }
             if (o.model === 'missing') delete files['m.json'];
             if (o.command === 'report') return judge(await run(['report', '--model', 'm.json', ...extra], files), 'report', files);
-            return judge(await run([mapCommand, '--model', 'm.json', '--input', 'x.csv', ...(o.cut % 2 ? ['--out', 'y.csv'] : []), ...extra], files), mapCommand, files);
+            return judge(
+              await run([mapCommand, '--model', 'm.json', '--input', 'x.csv', ...(o.cut % 2 ? ['--out', 'y.csv'] : []), ...extra], files),
+              mapCommand,
+              files,
+            );
           }
         }
       }),
-      1000, 15_000,
+      1000,
+      15_000,
     );
   });
 
   test('clean files with every fast method: fit, cost, apply, invert and report succeed or fail with one line; numbers written are finite', async () => {
-    const arb = fc.record({ d: fc.integer({ min: 1, max: 3 }), method: fc.constantFrom(...FAST, 'auto'), tails: fc.constantFrom('clamp', 'linear'), exp: fc.integer({ min: -6, max: 6 }), far: fc.boolean() }).chain((o) => {
-      const cols = ['a', 'b', 'c'].slice(0, o.d);
-      const rows = (min: number, max: number, scale: number) =>
-        fc.array(fc.array(scaledNumber(o.exp).map((v) => v * scale), { minLength: o.d, maxLength: o.d }), { minLength: min, maxLength: max }).map((rs) => [cols.join(','), ...rs.map((r) => r.join(','))].join('\n') + '\n');
-      return fc.record({ o: fc.constant(o), s: rows(5, 12, 1), t: rows(5, 12, 3), x: rows(0, 6, o.far ? 1e6 : 1) });
-    });
+    const arb = fc
+      .record({
+        d: fc.integer({ min: 1, max: 3 }),
+        method: fc.constantFrom(...FAST, 'auto'),
+        tails: fc.constantFrom('clamp', 'linear'),
+        exp: fc.integer({ min: -6, max: 6 }),
+        far: fc.boolean(),
+      })
+      .chain((o) => {
+        const cols = ['a', 'b', 'c'].slice(0, o.d);
+        const rows = (min: number, max: number, scale: number) =>
+          fc
+            .array(
+              fc.array(
+                scaledNumber(o.exp).map((v) => v * scale),
+                { minLength: o.d, maxLength: o.d },
+              ),
+              { minLength: min, maxLength: max },
+            )
+            .map((rs) => [cols.join(','), ...rs.map((r) => r.join(','))].join('\n') + '\n');
+        return fc.record({ o: fc.constant(o), s: rows(5, 12, 1), t: rows(5, 12, 3), x: rows(0, 6, o.far ? 1e6 : 1) });
+      });
     await assertProperty(
       fc.asyncProperty(arb, async ({ o, s, t, x }) => {
         cases++;
@@ -181,7 +247,8 @@ describe('remap command line under hostile input', () => {
         judge(await run(['invert', '--model', 'm.json', '--input', 'x.csv', '--out', 'y.csv'], files), 'invert', files);
         judge(await run(['report', '--model', 'm.json'], files), 'report', files);
       }),
-      300, 12_000,
+      300,
+      12_000,
     );
   });
 });

@@ -151,7 +151,8 @@ describe('worksheet functions under hostile input', () => {
             return judge(await frozenCall([r.source, r.target, r.output], F.pairs as never), 'PAIRS', 'pairs');
         }
       }),
-      1200, 15_000,
+      1200,
+      15_000,
     );
   });
 
@@ -184,7 +185,8 @@ describe('worksheet functions under hostile input', () => {
           if (g.length !== vals.length || g.some((row) => row.length !== o.d)) throw new Error('VALUES changed the shape of values');
         }
       }),
-      600, 10_000,
+      600,
+      10_000,
     );
   });
 
@@ -226,7 +228,8 @@ describe('worksheet functions under hostile input', () => {
         cases++;
         judge(await frozenCall([m1, c1, m2, c2], F.gausscost as never), 'GAUSSCOST', 'number');
       }),
-      600, 6_000,
+      600,
+      6_000,
     );
   });
 
@@ -277,7 +280,8 @@ describe('worksheet functions under hostile input', () => {
             return judge(await frozenCall([model], F.load as never), 'LOAD', 'handle');
         }
       }),
-      600, 12_000,
+      600,
+      12_000,
     );
   });
 
@@ -309,7 +313,8 @@ describe('worksheet functions under hostile input', () => {
           if (o.which === 'values') judge(await frozenCall([values, source, target, o.method, settings, w], F.values as never), `VALUES (${o.method})`, 'grid');
           else judge(await frozenCall([source, target, o.method, settings, w], F.cost as never), `COST (${o.method})`, 'number');
         }),
-        30, 20_000,
+        30,
+        20_000,
       );
     },
   );

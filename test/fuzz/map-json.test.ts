@@ -246,7 +246,8 @@ describe('saved maps under mutation', () => {
           map.dispose();
         }
       }),
-      3000, 15_000,
+      3000,
+      15_000,
     );
   });
 });

@@ -28,7 +28,6 @@ function sheetError(f: () => unknown): StubSheetError {
   throw new Error('expected a sheet error');
 }
 
-
 describe('quantile/hazen-grid.ts and quantile/knots.ts: weights adding up beyond half the largest double', () => {
   test('hazenGrid keeps positions finite and in [0, 1] when 2 x total weight overflows (was NaN, and the fit then looped for ever)', () => {
     const cdf = weightedCdfSorted(Float64Array.of(1, 2, 3), Float64Array.of(1e308, 5e-324, 1));
@@ -105,7 +104,11 @@ describe('cli/main.ts', () => {
   });
 
   test('usage errors say what to do', async () => {
-    for (const argv of [['fit', 'stray'], ['fit', '--out'], ['fit', '--out', 'a', '--out', 'b']]) {
+    for (const argv of [
+      ['fit', 'stray'],
+      ['fit', '--out'],
+      ['fit', '--out', 'a', '--out', 'b'],
+    ]) {
       const r = await cli(argv, {});
       expect(r.code).toBe(2);
       expect(r.err).toMatch(/write options as|give one|give it once/);
@@ -114,22 +117,41 @@ describe('cli/main.ts', () => {
 });
 
 describe('linear/fit.ts with linear/scale-check.ts: data too small or too large for double precision', () => {
-  const rows = (scale: number) => Array.from({ length: 12 }, (_, i) => [((i * 7) % 12 - 5) * scale]);
-  test.each([1e-300, 1e-160, 1e-100, 1e150])('data of size %p: #NUM! saying to rescale (was "every value is the same" or an internal eigen-solver ' +
-    'message)', (scale) => {
-    const target = Array.from({ length: 12 }, (_, i) => [((i * 5) % 12) * (scale === 1e-100 ? 1e-100 : 1)]);
-    const e = sheetError(() => F.cost(rows(scale), scale === 1e-100 ? target : rows(1), 'linear'));
-    expect(e.code).toBe('#NUM!');
-    expect(e.message).toMatch(/rescale/);
-    expect(e.message).not.toMatch(/symmetricEigen|spectralFunction|same/);
-  });
+  const rows = (scale: number) => Array.from({ length: 12 }, (_, i) => [(((i * 7) % 12) - 5) * scale]);
+  test.each([1e-300, 1e-160, 1e-100, 1e150])(
+    'data of size %p: #NUM! saying to rescale (was "every value is the same" or an internal eigen-solver ' + 'message)',
+    (scale) => {
+      const target = Array.from({ length: 12 }, (_, i) => [((i * 5) % 12) * (scale === 1e-100 ? 1e-100 : 1)]);
+      const e = sheetError(() => F.cost(rows(scale), scale === 1e-100 ? target : rows(1), 'linear'));
+      expect(e.code).toBe('#NUM!');
+      expect(e.message).toMatch(/rescale/);
+      expect(e.message).not.toMatch(/symmetricEigen|spectralFunction|same/);
+    },
+  );
 
   test('ordinary data is unaffected', () => {
     expect(Number.isFinite(F.cost(rows(1), rows(2), 'linear') as number)).toBe(true);
   });
 
   test('a ridge too large for the data is #NUM! saying to rescale, not an internal message', () => {
-    const e = sheetError(() => F.cost([[1, 1], [1, 2], [1, 3], [1, 4]], [[1, 2], [3, 4], [5, 6], [7, 9]], 'linear', 'ridge=1e308'));
+    const e = sheetError(() =>
+      F.cost(
+        [
+          [1, 1],
+          [1, 2],
+          [1, 3],
+          [1, 4],
+        ],
+        [
+          [1, 2],
+          [3, 4],
+          [5, 6],
+          [7, 9],
+        ],
+        'linear',
+        'ridge=1e308',
+      ),
+    );
     expect(e.message).not.toMatch(/symmetricEigen/);
     expect(e.message).toMatch(/rescale/);
   });

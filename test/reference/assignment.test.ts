@@ -126,8 +126,14 @@ describe('exact assignment against outside answers', () => {
     const xs = Array.from({ length: n }, () => r() * 5);
     const ys = Array.from({ length: n }, () => 100 + 30 * r());
     const map = fitPairs({ ...column(xs), weights: null }, { ...column(ys), weights: null }, { units: 'raw' });
-    const medX = quantileSorted([...xs].sort((a, b) => a - b), 0.5);
-    const medY = quantileSorted([...ys].sort((a, b) => a - b), 0.5);
+    const medX = quantileSorted(
+      [...xs].sort((a, b) => a - b),
+      0.5,
+    );
+    const medY = quantileSorted(
+      [...ys].sort((a, b) => a - b),
+      0.5,
+    );
     // Source: simple-statistics quantileSorted (the middle value for odd n), with the 1-D monotone rearrangement.
     expect(map.apply(column([medX])).data[0]).toBe(medY);
   });

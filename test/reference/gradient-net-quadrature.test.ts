@@ -36,7 +36,11 @@ function integral(p: ReturnType<typeof randomParams>, x: Float64Array, k: number
 describe('closed-form gradient network against its defining integral', () => {
   test('W^T diag(c) [h(Wx+b) - h(b)] + (V^T V + alpha I) x + beta equals the Gauss-Legendre integral to 1e-6 (float64)', () => {
     const rng = new Random(11);
-    for (const [d, m] of [[1, 5], [2, 16], [5, 64]]) {
+    for (const [d, m] of [
+      [1, 5],
+      [2, 16],
+      [5, 64],
+    ]) {
       const p = randomParams(d, m, 1, 100 + d);
       const net = new Float64Network(p);
       const f = new Float64Array(d);

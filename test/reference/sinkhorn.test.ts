@@ -57,8 +57,14 @@ describe('reference: entropic transport', () => {
 
   test('for Gaussian samples the entropic map is close to the closed-form linear Brenier map', () => {
     const d = 2;
-    const L1 = [[1, 0], [0.6, 0.8]];
-    const L2 = [[1.5, 0], [-0.5, 0.7]];
+    const L1 = [
+      [1, 0],
+      [0.6, 0.8],
+    ];
+    const L2 = [
+      [1.5, 0],
+      [-0.5, 0.7],
+    ];
     const X = normals(600, d, 3).map((z) => math.multiply(L1, z) as number[]);
     const Y = normals(600, d, 4).map((z) => math.add(math.multiply(L2, z) as number[], [2, -1]) as number[]);
     const m1 = moments(X);
@@ -69,7 +75,9 @@ describe('reference: entropic transport', () => {
     const r1inv = math.inv(r1) as number[][];
     const A = math.multiply(math.multiply(r1inv, math.sqrtm(math.multiply(math.multiply(r1, m2.cov), r1)) as number[][]), r1inv) as number[][];
     const map = fitEntropic(toSample(X), toSample(Y), {});
-    const probe = normals(200, d, 5).map((z) => math.multiply(L1, z) as number[]).filter((x) => (math.norm(x) as number) < 1.5);
+    const probe = normals(200, d, 5)
+      .map((z) => math.multiply(L1, z) as number[])
+      .filter((x) => (math.norm(x) as number) < 1.5);
     const T = map.apply(toPoints(probe)).data;
     let se = 0;
     probe.forEach((x, i) => {

@@ -22,7 +22,10 @@ import { DEMO_ENTROPIC_ROWS, DEMO_GRADIENT_NET_SETTINGS, DEMO_WORKBOOKS, makeDem
  */
 
 const DATA = path.join(__dirname, '..', '..', 'demo-workbooks', 'data');
-const rows = (file: string): number[][] => parseCSV(fs.readFileSync(path.join(DATA, file), 'utf8')).slice(1).map((r) => r.map(Number));
+const rows = (file: string): number[][] =>
+  parseCSV(fs.readFileSync(path.join(DATA, file), 'utf8'))
+    .slice(1)
+    .map((r) => r.map(Number));
 const col = (m: number[][], k: number) => m.map((r) => r[k]);
 const pts = (m: number[][]): Points => ({ n: m.length, d: m[0].length, data: Float64Array.from(m.flat()) });
 
@@ -46,32 +49,37 @@ function expectSame(result: RunResult, ref: string, want: ArrayLike<number>): vo
 }
 
 describe('demo workbooks', () => {
-  test('are valid xlsx files: a zip holding [Content_Types].xml and one part per sheet, that exceljs reads back with the REMAP formulas and an ' +
-    'About sheet', async () => {
-    // Source: ECMA-376 Part 2 (Open Packaging Conventions): [Content_Types].xml; xl/worksheets/sheetN.xml
-    expect(paths.map((p) => path.basename(p))).toEqual(DEMO_WORKBOOKS.map((d) => d.file));
-    for (const p of paths) {
-      const bytes = fs.readFileSync(p);
-      expect(bytes.subarray(0, 4).toString('latin1')).toBe('PK\u0003\u0004');
-      const text = bytes.toString('latin1');
-      expect(text).toContain('[Content_Types].xml');
-      const wb = new Workbook();
-      await wb.xlsx.readFile(p);
-      expect(wb.worksheets[0].name).toBe('About');
-      for (let i = 1; i <= wb.worksheets.length; i++) expect(text).toContain(`xl/worksheets/sheet${i}.xml`);
-      let remap = 0;
-      wb.eachSheet((ws) => ws.eachRow((row) => row.eachCell((c) => (c.type === ValueType.Formula && /REMAP\./.test(c.formula) ? remap++ : undefined))));
-      expect(remap).toBeGreaterThanOrEqual(5);
-    }
-  });
+  test(
+    'are valid xlsx files: a zip holding [Content_Types].xml and one part per sheet, that exceljs reads back with the REMAP formulas and an ' + 'About sheet',
+    async () => {
+      // Source: ECMA-376 Part 2 (Open Packaging Conventions): [Content_Types].xml; xl/worksheets/sheetN.xml
+      expect(paths.map((p) => path.basename(p))).toEqual(DEMO_WORKBOOKS.map((d) => d.file));
+      for (const p of paths) {
+        const bytes = fs.readFileSync(p);
+        expect(bytes.subarray(0, 4).toString('latin1')).toBe('PK\u0003\u0004');
+        const text = bytes.toString('latin1');
+        expect(text).toContain('[Content_Types].xml');
+        const wb = new Workbook();
+        await wb.xlsx.readFile(p);
+        expect(wb.worksheets[0].name).toBe('About');
+        for (let i = 1; i <= wb.worksheets.length; i++) expect(text).toContain(`xl/worksheets/sheet${i}.xml`);
+        let remap = 0;
+        wb.eachSheet((ws) => ws.eachRow((row) => row.eachCell((c) => (c.type === ValueType.Formula && /REMAP\./.test(c.formula) ? remap++ : undefined))));
+        expect(remap).toBeGreaterThanOrEqual(5);
+      }
+    },
+  );
 
-  test('survey-waves: income and satisfaction of wave 2 on wave 1\'s scale equal the engine\'s weighted quantile and ordinal maps', async () => {
+  test("survey-waves: income and satisfaction of wave 2 on wave 1's scale equal the engine's weighted quantile and ordinal maps", async () => {
     // Source: src/engine fitMap('quantile' | 'ordinal') + apply called directly, with the survey weights
     const r = await runWorkbook(paths[0]);
     const w1 = rows('survey-wave1.csv');
     const w2 = rows('survey-wave2.csv');
     const e2 = w2.length + 1;
-    for (const [k, method, column] of [[1, 'quantile', 'F'], [2, 'ordinal', 'G']] as const) {
+    for (const [k, method, column] of [
+      [1, 'quantile', 'F'],
+      [2, 'ordinal', 'G'],
+    ] as const) {
       const map = await fitMap(method, sample(col(w2, k), col(w2, 3)), sample(col(w1, k), col(w1, 3)));
       expectSame(r, `Wave2!${column}2:${column}${e2}`, map.apply(pts(w2.map((x) => [x[k]]))).data);
     }
@@ -81,7 +89,7 @@ describe('demo workbooks', () => {
     expect(r.formulas.every((f) => f.block.every((row) => row.every((v) => v === null || typeof v !== 'object')))).toBe(true);
   });
 
-  test('what-if: North re-shaped equals the engine\'s quantile map, and mapping back gives the original sales', async () => {
+  test("what-if: North re-shaped equals the engine's quantile map, and mapping back gives the original sales", async () => {
     // Source: src/engine fitMap('quantile') + apply/invert called directly
     const r = await runWorkbook(paths[2]);
     const north = rows('sales-north.csv');
@@ -95,40 +103,49 @@ describe('demo workbooks', () => {
     expect(rangeNumbers(r.values, 'WhatIf!D7').data[0]).toBe(map.invert(pts([[100000]])).data[0]);
   });
 
-  test('scenario-alignment (reduced: 1,000 scenarios, gradient-net steps=0, entropic on 300 rows): each aligned block equals the engine\'s map ' +
-    'applied to the model scenarios', async () => {
-    // Source: src/engine fitMap('linear' | 'entropic' | 'gradient-net') + apply called directly, same settings
-    const wb = new Workbook();
-    await wb.xlsx.readFile(paths[1]);
-    const small = 'seed=7; steps=0';
-    const N = 1000;
-    wb.eachSheet((ws) =>
-      ws.eachRow((row) =>
-        row.eachCell((c) => {
-          if (c.type !== ValueType.Formula) return;
-          const v = c.value as { formula: string; ref?: string };
-          const f = v.formula.split(DEMO_GRADIENT_NET_SETTINGS).join(small).split(`C${DEMO_ENTROPIC_ROWS + 1}`).join('C301').split('5001').join(String(N + 1));
-          c.value = { ...v, formula: f, ...(v.ref ? { ref: v.ref.replace('5001', String(N + 1)) } : {}) } as never;
-        }),
-      ),
-    );
-    const r = await runWorkbook(wb);
-    expect(r.passes).toBe(2);
-    const model = rows('scenarios-model.csv').slice(0, N);
-    const ref = rows('scenarios-reference.csv').slice(0, N);
-    const e = N + 1;
-    const fits: [string, number[][], number[][], Record<string, unknown>, string][] = [
-      ['linear', model, ref, {}, `Aligned!A2:C${e}`],
-      ['entropic', model.slice(0, 300), ref.slice(0, 300), { seed: 7 }, `Aligned!E2:G${e}`],
-      ['gradient-net', model, ref, { seed: 7, steps: 0 }, `Aligned!I2:K${e}`],
-    ];
-    for (const [method, s, t, settings, block] of fits) {
-      const map = await fitMap(method, sample(s), sample(t), settings);
-      expectSame(r, block, map.apply(pts(model)).data);
-      map.dispose();
-    }
-    const costs = rangeNumbers(r.values, 'Fits!C2:C4').data;
-    for (const c of costs) expect(c).toBeGreaterThan(0);
-    expect(r.values.Reports[1][0]).toBe('Method');
-  });
+  test(
+    "scenario-alignment (reduced: 1,000 scenarios, gradient-net steps=0, entropic on 300 rows): each aligned block equals the engine's map " +
+      'applied to the model scenarios',
+    async () => {
+      // Source: src/engine fitMap('linear' | 'entropic' | 'gradient-net') + apply called directly, same settings
+      const wb = new Workbook();
+      await wb.xlsx.readFile(paths[1]);
+      const small = 'seed=7; steps=0';
+      const N = 1000;
+      wb.eachSheet((ws) =>
+        ws.eachRow((row) =>
+          row.eachCell((c) => {
+            if (c.type !== ValueType.Formula) return;
+            const v = c.value as { formula: string; ref?: string };
+            const f = v.formula
+              .split(DEMO_GRADIENT_NET_SETTINGS)
+              .join(small)
+              .split(`C${DEMO_ENTROPIC_ROWS + 1}`)
+              .join('C301')
+              .split('5001')
+              .join(String(N + 1));
+            c.value = { ...v, formula: f, ...(v.ref ? { ref: v.ref.replace('5001', String(N + 1)) } : {}) } as never;
+          }),
+        ),
+      );
+      const r = await runWorkbook(wb);
+      expect(r.passes).toBe(2);
+      const model = rows('scenarios-model.csv').slice(0, N);
+      const ref = rows('scenarios-reference.csv').slice(0, N);
+      const e = N + 1;
+      const fits: [string, number[][], number[][], Record<string, unknown>, string][] = [
+        ['linear', model, ref, {}, `Aligned!A2:C${e}`],
+        ['entropic', model.slice(0, 300), ref.slice(0, 300), { seed: 7 }, `Aligned!E2:G${e}`],
+        ['gradient-net', model, ref, { seed: 7, steps: 0 }, `Aligned!I2:K${e}`],
+      ];
+      for (const [method, s, t, settings, block] of fits) {
+        const map = await fitMap(method, sample(s), sample(t), settings);
+        expectSame(r, block, map.apply(pts(model)).data);
+        map.dispose();
+      }
+      const costs = rangeNumbers(r.values, 'Fits!C2:C4').data;
+      for (const c of costs) expect(c).toBeGreaterThan(0);
+      expect(r.values.Reports[1][0]).toBe('Method');
+    },
+  );
 });

@@ -16,10 +16,17 @@ import { gaussianDivergence } from './gaussian-divergence';
  * @example costNote(0.05, 'standardised', x, logA, y, logB, gap, 2.1) // 'Debiased Sinkhorn divergence at smoothing 0.05, ...'
  */
 export function costNote(
-  eps: number, units: ColumnUnits, x: Points, logA: Float64Array, y: Points, logB: Float64Array, meanGap: Float64Array, w2Squared: number,
+  eps: number,
+  units: ColumnUnits,
+  x: Points,
+  logA: Float64Array,
+  y: Points,
+  logB: Float64Array,
+  meanGap: Float64Array,
+  w2Squared: number,
 ): string {
   const d = x.d;
-  const where = units === 'standardised' ? 'in standardised units (each column divided by its pooled spread)' : 'in the data\'s units';
+  const where = units === 'standardised' ? 'in standardised units (each column divided by its pooled spread)' : "in the data's units";
   let bias = '';
   try {
     const g = gaussianDivergence(new Float64Array(d), covariance(x, logA), meanGap, covariance(y, logB), d, eps);

@@ -19,8 +19,19 @@
  * @example logitRows2(x.data, 0, 1, y.data, 2, 0, 3, g, 10, K, 0, 3, max) // rows 0, 1 of a 2 x 3 kernel's logits
  */
 export function logitRows2(
-  xd: Float64Array, i0: number, i1: number, yd: Float64Array, d: number, from: number, m: number,
-  g: Float64Array, inv: number, out: Float64Array, o0: number, o1: number, max: Float64Array,
+  xd: Float64Array,
+  i0: number,
+  i1: number,
+  yd: Float64Array,
+  d: number,
+  from: number,
+  m: number,
+  g: Float64Array,
+  inv: number,
+  out: Float64Array,
+  o0: number,
+  o1: number,
+  max: Float64Array,
 ): void {
   const x0 = i0 * d;
   const x1 = i1 * d;

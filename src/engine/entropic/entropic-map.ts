@@ -102,7 +102,7 @@ export class EntropicMap extends BaseMap {
       const shown = Array.from(y.data.subarray(i * y.d, i * y.d + Math.min(y.d, 5))).join(', ') + (y.d > 5 ? ', ...' : '');
       throw new RemapError(
         `invert (entropic): row ${i + 1} of the values (${shown}) is not a value the map produces (${r.failed.length} row${r.failed.length === 1 ? '' : 's'} failed): ` +
-          'the entropic map only reaches the inside of the convex hull of the target rows, and Newton\'s method did not converge there. Invert values inside the range of the mapped data.',
+          "the entropic map only reaches the inside of the convex hull of the target rows, and Newton's method did not converge there. Invert values inside the range of the mapped data.",
         'num',
       );
     }

@@ -62,7 +62,10 @@ export function halfSquaredDiameter(x: { n: number; d: number; data: Float64Arra
  * @example meanCost(points([[0], [2]]), logHalf, points([[5]]), Float64Array.of(0)) // (1 + 0 + 16) / 2 = 8.5
  */
 export function meanCost(
-  x: { n: number; d: number; data: Float64Array }, logA: Float64Array, y: { n: number; d: number; data: Float64Array }, logB: Float64Array,
+  x: { n: number; d: number; data: Float64Array },
+  logA: Float64Array,
+  y: { n: number; d: number; data: Float64Array },
+  logB: Float64Array,
 ): number {
   const d = x.d;
   let total = 0;

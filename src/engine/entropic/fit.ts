@@ -126,7 +126,10 @@ export function fitEntropic(source: Sample, target: Sample, settings: Settings, 
   };
   const warnings: Warning[] = [...sizeWarnings(header)];
   if (!converged) {
-    const worst = solves.filter(([, r]) => !r.converged).map(([name]) => name).join(', ');
+    const worst = solves
+      .filter(([, r]) => !r.converged)
+      .map(([name]) => name)
+      .join(', ');
     warnings.push({
       code: 'not-converged',
       message: `Sinkhorn did not reach the tolerance ${fmt(opts.tolerance)} within ${opts.maxIterations} iterations (${worst}); the marginal error is ${fmt(convergence.finalError)}, so the map and the cost are approximate.`,

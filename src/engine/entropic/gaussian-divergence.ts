@@ -22,7 +22,12 @@ import { symmetricEigen } from '../stats/symmetric-eigen';
  * @example gaussianDivergence(Float64Array.of(0), Float64Array.of(1), Float64Array.of(0), Float64Array.of(1), 1, 0.5) // { w2Squared: 0, divergence2: 0 }
  */
 export function gaussianDivergence(
-  meanA: Float64Array, covA: Float64Array, meanB: Float64Array, covB: Float64Array, d: number, eps: number,
+  meanA: Float64Array,
+  covA: Float64Array,
+  meanB: Float64Array,
+  covB: Float64Array,
+  d: number,
+  eps: number,
 ): { w2Squared: number; divergence2: number } {
   let gap = 0;
   for (let k = 0; k < d; k++) gap += (meanA[k] - meanB[k]) ** 2;

@@ -30,8 +30,16 @@
  * @example fusedScalingPass(K, n, m, a, bv, u, 1, uNew, t, stats) // uNew = 1 / K(b v), t = K^T(a uNew)
  */
 export function fusedScalingPass(
-  K: Float64Array, n: number, m: number, a: Float64Array, bv: Float64Array,
-  u: Float64Array, omega: number, uOut: Float64Array, t: Float64Array, stats: Float64Array,
+  K: Float64Array,
+  n: number,
+  m: number,
+  a: Float64Array,
+  bv: Float64Array,
+  u: Float64Array,
+  omega: number,
+  uOut: Float64Array,
+  t: Float64Array,
+  stats: Float64Array,
   square: { readonly u: Float64Array; readonly v: Float64Array } | null = null,
 ): boolean {
   t.fill(0);
@@ -47,40 +55,81 @@ export function fusedScalingPass(
     const r1 = r0 + m;
     const r2 = r1 + m;
     const r3 = r2 + m;
-    let p0 = 0, q0 = 0, p1 = 0, q1 = 0, p2 = 0, q2 = 0, p3 = 0, q3 = 0;
+    let p0 = 0,
+      q0 = 0,
+      p1 = 0,
+      q1 = 0,
+      p2 = 0,
+      q2 = 0,
+      p3 = 0,
+      q3 = 0;
     let j = 0;
     if (square) {
       // The stage move and the row sums in one sweep (the arithmetic of squareRow, entry by entry).
       const sv = square.v;
-      const u0 = square.u[i], u1 = square.u[i + 1], u2 = square.u[i + 2], u3 = square.u[i + 3];
+      const u0 = square.u[i],
+        u1 = square.u[i + 1],
+        u2 = square.u[i + 2],
+        u3 = square.u[i + 3];
       for (; j < m2; j += 2) {
         const w0 = bv[j];
         const w1 = bv[j + 1];
         const v0 = sv[j];
         const v1 = sv[j + 1];
         let z: number;
-        z = u0 * K[r0 + j] * v0; z *= z; K[r0 + j] = z; p0 += z * w0;
-        z = u0 * K[r0 + j + 1] * v1; z *= z; K[r0 + j + 1] = z; q0 += z * w1;
-        z = u1 * K[r1 + j] * v0; z *= z; K[r1 + j] = z; p1 += z * w0;
-        z = u1 * K[r1 + j + 1] * v1; z *= z; K[r1 + j + 1] = z; q1 += z * w1;
-        z = u2 * K[r2 + j] * v0; z *= z; K[r2 + j] = z; p2 += z * w0;
-        z = u2 * K[r2 + j + 1] * v1; z *= z; K[r2 + j + 1] = z; q2 += z * w1;
-        z = u3 * K[r3 + j] * v0; z *= z; K[r3 + j] = z; p3 += z * w0;
-        z = u3 * K[r3 + j + 1] * v1; z *= z; K[r3 + j + 1] = z; q3 += z * w1;
+        z = u0 * K[r0 + j] * v0;
+        z *= z;
+        K[r0 + j] = z;
+        p0 += z * w0;
+        z = u0 * K[r0 + j + 1] * v1;
+        z *= z;
+        K[r0 + j + 1] = z;
+        q0 += z * w1;
+        z = u1 * K[r1 + j] * v0;
+        z *= z;
+        K[r1 + j] = z;
+        p1 += z * w0;
+        z = u1 * K[r1 + j + 1] * v1;
+        z *= z;
+        K[r1 + j + 1] = z;
+        q1 += z * w1;
+        z = u2 * K[r2 + j] * v0;
+        z *= z;
+        K[r2 + j] = z;
+        p2 += z * w0;
+        z = u2 * K[r2 + j + 1] * v1;
+        z *= z;
+        K[r2 + j + 1] = z;
+        q2 += z * w1;
+        z = u3 * K[r3 + j] * v0;
+        z *= z;
+        K[r3 + j] = z;
+        p3 += z * w0;
+        z = u3 * K[r3 + j + 1] * v1;
+        z *= z;
+        K[r3 + j + 1] = z;
+        q3 += z * w1;
       }
       if (j < m) for (let k = 0; k < 4; k++) squareRow(K, r0 + k * m + j, 1, square.u[i + k], sv.subarray(j));
     }
     for (; j < m2; j += 2) {
       const w0 = bv[j];
       const w1 = bv[j + 1];
-      p0 += K[r0 + j] * w0; q0 += K[r0 + j + 1] * w1;
-      p1 += K[r1 + j] * w0; q1 += K[r1 + j + 1] * w1;
-      p2 += K[r2 + j] * w0; q2 += K[r2 + j + 1] * w1;
-      p3 += K[r3 + j] * w0; q3 += K[r3 + j + 1] * w1;
+      p0 += K[r0 + j] * w0;
+      q0 += K[r0 + j + 1] * w1;
+      p1 += K[r1 + j] * w0;
+      q1 += K[r1 + j + 1] * w1;
+      p2 += K[r2 + j] * w0;
+      q2 += K[r2 + j + 1] * w1;
+      p3 += K[r3 + j] * w0;
+      q3 += K[r3 + j + 1] * w1;
     }
     if (j < m) {
       const w = bv[j];
-      p0 += K[r0 + j] * w; p1 += K[r1 + j] * w; p2 += K[r2 + j] * w; p3 += K[r3 + j] * w;
+      p0 += K[r0 + j] * w;
+      p1 += K[r1 + j] * w;
+      p2 += K[r2 + j] * w;
+      p3 += K[r3 + j] * w;
     }
     sums[0] = p0 + q0;
     sums[1] = p1 + q1;
@@ -104,8 +153,11 @@ export function fusedScalingPass(
       err += Math.abs(row - a[i + k]);
     }
     if (blockOk) {
-      const c0 = au[0], c1 = au[1], c2 = au[2], c3 = au[3];
-      for (let jj = 0; jj < m; jj++) t[jj] += (c0 * K[r0 + jj] + c1 * K[r1 + jj]) + (c2 * K[r2 + jj] + c3 * K[r3 + jj]);
+      const c0 = au[0],
+        c1 = au[1],
+        c2 = au[2],
+        c3 = au[3];
+      for (let jj = 0; jj < m; jj++) t[jj] += c0 * K[r0 + jj] + c1 * K[r1 + jj] + (c2 * K[r2 + jj] + c3 * K[r3 + jj]);
     } else {
       ok = false;
       for (let k = 0; k < 4; k++) if (au[k] !== 0) addRow(K, (i + k) * m, m, au[k], t);
@@ -158,13 +210,18 @@ export function kernelTimes(K: Float64Array, n: number, m: number, w: Float64Arr
   for (; i + 1 < n; i += 2) {
     const r0 = i * m;
     const r1 = r0 + m;
-    let p0 = 0, q0 = 0, p1 = 0, q1 = 0;
+    let p0 = 0,
+      q0 = 0,
+      p1 = 0,
+      q1 = 0;
     let j = 0;
     for (; j < m2; j += 2) {
       const w0 = w[j];
       const w1 = w[j + 1];
-      p0 += K[r0 + j] * w0; q0 += K[r0 + j + 1] * w1;
-      p1 += K[r1 + j] * w0; q1 += K[r1 + j + 1] * w1;
+      p0 += K[r0 + j] * w0;
+      q0 += K[r0 + j + 1] * w1;
+      p1 += K[r1 + j] * w0;
+      q1 += K[r1 + j + 1] * w1;
     }
     if (j < m) {
       p0 += K[r0 + j] * w[j];

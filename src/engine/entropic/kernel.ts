@@ -32,8 +32,15 @@ import { logitRows2 } from './cost-rows';
  * @example buildKernelRecentred(x, y, b, f, g, 0.1, K) // K ready, u = 1 exact for the rows
  */
 export function buildKernelRecentred(
-  x: Points, y: Points, b: Float64Array, f: Float64Array, g: Float64Array, eps: number, K: Float64Array,
-  colWeights: Float64Array | null = null, colSums: Float64Array | null = null,
+  x: Points,
+  y: Points,
+  b: Float64Array,
+  f: Float64Array,
+  g: Float64Array,
+  eps: number,
+  K: Float64Array,
+  colWeights: Float64Array | null = null,
+  colSums: Float64Array | null = null,
 ): void {
   const n = x.n;
   const m = y.n;
@@ -141,7 +148,15 @@ export function maxSquarings(tolerance: number): number {
  * @example repairColumn(x, y, logA, f, g, 0.01, K, 3, scratch)
  */
 export function repairColumn(
-  x: Points, y: Points, logA: Float64Array, f: Float64Array, g: Float64Array, eps: number, K: Float64Array, j: number, scratch: Float64Array,
+  x: Points,
+  y: Points,
+  logA: Float64Array,
+  f: Float64Array,
+  g: Float64Array,
+  eps: number,
+  K: Float64Array,
+  j: number,
+  scratch: Float64Array,
 ): void {
   const n = x.n;
   const m = y.n;

@@ -72,10 +72,11 @@ export function newtonInverse(y: Points, support: Points, h: Float64Array, eps: 
     }
     // Phi = |x|^2 / 2 + eps (max z + log total) - <target, x>, with max z = h_jmax - |x - y_jmax|^2 / (2 eps).
     let jmax = 0;
-    for (let j = 0; j < m; j++) if (w[j] === 1) {
-      jmax = j;
-      break;
-    }
+    for (let j = 0; j < m; j++)
+      if (w[j] === 1) {
+        jmax = j;
+        break;
+      }
     let dist = 0;
     let xx = 0;
     let xt = 0;

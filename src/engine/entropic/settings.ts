@@ -27,7 +27,7 @@ export const ENTROPIC_SETTINGS = [
     minExclusive: true,
     max: 0.5,
     describe:
-      'Stop when the L1 error of the plan\'s marginals is below this. The default 1e-4 moves the fitted map by less than 1e-6 % of the target variance against 1e-6, with a sixth to a third fewer iterations.',
+      "Stop when the L1 error of the plan's marginals is below this. The default 1e-4 moves the fitted map by less than 1e-6 % of the target variance against 1e-6, with a sixth to a third fewer iterations.",
   },
   {
     name: 'seed',
@@ -35,7 +35,7 @@ export const ENTROPIC_SETTINGS = [
     default: 1,
     min: 0,
     max: 4294967295,
-    describe: 'Seed for the (at most 200) source rows on which the Jacobian\'s smallest eigenvalue is checked.',
+    describe: "Seed for the (at most 200) source rows on which the Jacobian's smallest eigenvalue is checked.",
   },
   UNITS_SETTING,
 ] as const satisfies readonly SettingSpec[];

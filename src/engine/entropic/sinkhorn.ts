@@ -111,7 +111,14 @@ export function solveSinkhorn(p: TransportProblem, o: SinkhornOptions): Sinkhorn
   const squaringCap = maxSquarings(o.tolerance);
   const stages = schedule.length;
   const st: SolverState = {
-    x, y, logA, a, b, K, n, m,
+    x,
+    y,
+    logA,
+    a,
+    b,
+    K,
+    n,
+    m,
     f: new Float64Array(n),
     g: new Float64Array(m),
     u: new Float64Array(n).fill(1),

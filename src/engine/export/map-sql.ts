@@ -43,7 +43,8 @@ export interface MapSql {
  * @throws RemapError for entropic or pairs maps (saying what to do instead), a gradient-net map with
  *   direction 'invert', a column list of the wrong length, a bad suffix, or a 1-D map with more knots than SQL export writes.
  * @example mapToSql(quantileJson, { table: 'wave2', columns: ['income'] }).select
- *   // 'WITH remap_c0_g AS (...), remap_c0_s AS (...)\nSELECT t.*,\n  CASE WHEN CAST(t.income AS DOUBLE) IS NULL ... END AS income_mapped\nFROM wave2 AS t\nLEFT JOIN ...'
+ *   // 'WITH remap_c0_g AS (...), remap_c0_s AS (...)\nSELECT t.*,\n'
+ *   //   + '  CASE WHEN CAST(t.income AS DOUBLE) IS NULL ... END AS income_mapped\nFROM wave2 AS t\nLEFT JOIN ...'
  */
 export function mapToSql(json: MapJSON, options: SqlOptions): MapSql {
   const direction = options.direction ?? 'apply';
@@ -54,7 +55,9 @@ export function mapToSql(json: MapJSON, options: SqlOptions): MapSql {
     );
   }
   if (direction === 'invert' && json.method === 'gradient-net') {
-    throw new RemapError(`${fn}: the inverse of a gradient-net map has no closed form (the engine solves for it by Newton's method), so it cannot be written as SQL; invert with \`remap invert\`, or fit the map the other way (target to source) and export that.`);
+    throw new RemapError(
+      `${fn}: the inverse of a gradient-net map has no closed form (the engine solves for it by Newton's method), so it cannot be written as SQL; invert with \`remap invert\`, or fit the map the other way (target to source) and export that.`,
+    );
   }
   if (direction !== 'apply' && direction !== 'invert') throw new RemapError(`${fn}: the direction must be apply or invert, not "${String(direction)}".`);
   // Every parameter is checked by the method's own reader before any is written out.
@@ -63,7 +66,9 @@ export function mapToSql(json: MapJSON, options: SqlOptions): MapSql {
   const names = options.columns ?? json.columns;
   if (!names) throw new RemapError(`${fn}: the map was fitted without column names; give the table's columns to map (${json.d} of them), in the map's order.`);
   if (names.length !== json.d) {
-    throw new RemapError(`${fn}: ${names.length} column${names.length === 1 ? ' was' : 's were'} given (${names.join(', ')}) but the map takes ${json.d}; give ${json.d}, in the map's order${json.columns ? ` (${json.columns.join(', ')})` : ''}.`);
+    throw new RemapError(
+      `${fn}: ${names.length} column${names.length === 1 ? ' was' : 's were'} given (${names.join(', ')}) but the map takes ${json.d}; give ${json.d}, in the map's order${json.columns ? ` (${json.columns.join(', ')})` : ''}.`,
+    );
   }
   const suffix = options.suffix ?? '_mapped';
   if (/[\r\n]/.test(suffix)) throw new RemapError(`${fn}: the suffix ${JSON.stringify(suffix)} holds a line break; give a plain word such as _mapped.`);

@@ -23,7 +23,10 @@ export function sqlNumber(v: number): string {
   return v < 0 ? `(${t})` : t;
 }
 
-/** Words that cannot stand unquoted as a column or table name in at least one of the three engines (common practice: the SQL-92 and engines' reserved lists, abridged). */
+/**
+ * Words that cannot stand unquoted as a column or table name in at least one of the three engines
+ * (common practice: the SQL-92 and engines' reserved lists, abridged).
+ */
 const RESERVED = new Set(
   (
     'all and any array as asc between both by case cast check collate column constraint create cross cube current current_date current_time ' +
@@ -46,7 +49,11 @@ export type QuoteStyle = 'double' | 'backtick';
  * @example sqlName('Net income') // '"Net income"'
  */
 export function sqlName(name: string, style: QuoteStyle = 'double', dotted = false): string {
-  if (dotted && name.includes('.')) return name.split('.').map((p) => sqlName(p, style, false)).join('.');
+  if (dotted && name.includes('.'))
+    return name
+      .split('.')
+      .map((p) => sqlName(p, style, false))
+      .join('.');
   if (name === '') throw new RemapError('SQL export: a column or table name is empty; give a name.');
   if (/^[a-z_][a-z0-9_]*$/.test(name) && !RESERVED.has(name)) return name;
   const q = style === 'double' ? '"' : '`';

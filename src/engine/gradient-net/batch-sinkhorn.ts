@@ -206,7 +206,18 @@ function maxChange(a: Float64Array, b: Float64Array): number {
  * out_i += factor * sum_j P_ij z_j with P_ij = exp((f_i + h_j - C_ij)/eps) / m, which
  * sums to 1 over j when f = softmin(C, h) (so P is the row-normalised plan). O(n m d).
  */
-function barycentres(c: Float64Array, n: number, m: number, h: Float64Array, f: Float64Array, eps: number, z: Float64Array, d: number, out: Float64Array, factor: number): void {
+function barycentres(
+  c: Float64Array,
+  n: number,
+  m: number,
+  h: Float64Array,
+  f: Float64Array,
+  eps: number,
+  z: Float64Array,
+  d: number,
+  out: Float64Array,
+  factor: number,
+): void {
   const inv = 1 / eps;
   const row = new Float64Array(d);
   for (let i = 0; i < n; i++) {

@@ -51,7 +51,12 @@ export function holdoutSplit(n: number, weights: Float64Array | null, rng: Rando
 }
 
 /** Rows `idx` of a row-major n x d array (and their weights), as new arrays. O(|idx| d). */
-export function pickRows(data: Float64Array, weights: Float64Array | null, d: number, idx: Uint32Array): { n: number; d: number; data: Float64Array; weights: Float64Array | null } {
+export function pickRows(
+  data: Float64Array,
+  weights: Float64Array | null,
+  d: number,
+  idx: Uint32Array,
+): { n: number; d: number; data: Float64Array; weights: Float64Array | null } {
   const out = new Float64Array(idx.length * d);
   for (let r = 0; r < idx.length; r++) for (let k = 0; k < d; k++) out[r * d + k] = data[idx[r] * d + k];
   const w = weights ? Float64Array.from(idx, (i) => weights[i]) : null;

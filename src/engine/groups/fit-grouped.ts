@@ -111,9 +111,14 @@ export function fitGroupedMapSync(
       for (const m of fits.values()) m.dispose();
       throw new RemapError(`fit by group (${plan.spec.name}): the fit was cancelled before every group was fitted.`, 'cancelled');
     }
-    if (p.reason === null) fits.set(key, inGroupSync(key, plan.spec.name, () => fitMapSync(plan.spec.name, p.source!, p.target!, settings, options.ctx ?? {})));
+    if (p.reason === null)
+      fits.set(
+        key,
+        inGroupSync(key, plan.spec.name, () => fitMapSync(plan.spec.name, p.source!, p.target!, settings, options.ctx ?? {})),
+      );
   }
-  const pooled = plan.fallback === 'pooled' ? inGroupSync(null, plan.spec.name, () => fitMapSync(plan.spec.name, source, target, settings, options.ctx ?? {})) : null;
+  const pooled =
+    plan.fallback === 'pooled' ? inGroupSync(null, plan.spec.name, () => fitMapSync(plan.spec.name, source, target, settings, options.ctx ?? {})) : null;
   return assemble(plan, fits, pooled, source, target, settings);
 }
 
@@ -175,12 +180,21 @@ function planGroups(
   }
   if (problems.length > 0 && fallback === 'none') {
     const list = problems.slice(0, 8).join('; ') + (problems.length > 8 ? `; and ${problems.length - 8} more` : '');
-    throw new RemapError(`${fn}: ${list}. Give those groups more rows (effective rows are Kish's (sum of weights)^2 / sum of squared weights), leave them out, or set the fallback to pooled to map them with the map fitted on all rows.`);
+    throw new RemapError(
+      `${fn}: ${list}. Give those groups more rows (effective rows are Kish's (sum of weights)^2 / sum of squared weights), leave them out, or set the fallback to pooled to map them with the map fitted on all rows.`,
+    );
   }
   return { spec, keys, parts, fallback };
 }
 
-function assemble(plan: Plan, fits: Map<string, TransportMap>, pooled: TransportMap | null, source: Sample, _target: Sample, settings: Readonly<Record<string, unknown>>): GroupedMap {
+function assemble(
+  plan: Plan,
+  fits: Map<string, TransportMap>,
+  pooled: TransportMap | null,
+  source: Sample,
+  _target: Sample,
+  settings: Readonly<Record<string, unknown>>,
+): GroupedMap {
   const entries: GroupEntry[] = plan.keys.map((key) => {
     const p = plan.parts.get(key)!;
     return { group: key, ...p.sizes, map: fits.get(key) ?? null, reason: p.reason };

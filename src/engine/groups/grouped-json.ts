@@ -20,7 +20,8 @@ export function isGroupedMapJSON(raw: unknown): boolean {
  */
 export function parseGroupedMapJSON(text: string): GroupedMapJSON {
   if (typeof text !== 'string') throw new RemapError('Grouped map JSON must be text, as written by `remap fit-groups --out`.');
-  if (text.length > MAX_MAP_JSON_CHARS) throw new RemapError(`Grouped map JSON is ${text.length} characters; the limit is ${MAX_MAP_JSON_CHARS}. Fit with fewer rows or groups.`);
+  if (text.length > MAX_MAP_JSON_CHARS)
+    throw new RemapError(`Grouped map JSON is ${text.length} characters; the limit is ${MAX_MAP_JSON_CHARS}. Fit with fewer rows or groups.`);
   let raw: unknown;
   try {
     raw = JSON.parse(text, (key, value) => {
@@ -47,7 +48,8 @@ export function checkGroupedMapJSON(raw: unknown): GroupedMapJSON {
   getMethod(o.method as string);
   if (!isCount(o.d, true) || (o.d as number) < 1) bad('"d" is not a column count');
   if (typeof o.settings !== 'object' || o.settings === null || Array.isArray(o.settings)) bad('"settings" is not an object');
-  if (o.columns !== null && !(Array.isArray(o.columns) && o.columns.length === o.d && o.columns.every((c) => typeof c === 'string'))) bad('"columns" is neither null nor one name per column');
+  if (o.columns !== null && !(Array.isArray(o.columns) && o.columns.length === o.d && o.columns.every((c) => typeof c === 'string')))
+    bad('"columns" is neither null nor one name per column');
   if (o.fallback !== 'none' && o.fallback !== 'pooled') bad('"fallback" is neither none nor pooled');
   if (!Array.isArray(o.groups) || o.groups.length === 0) bad('"groups" is not a non-empty list');
   const maps: MapJSON[] = [];
@@ -59,7 +61,8 @@ export function checkGroupedMapJSON(raw: unknown): GroupedMapJSON {
     keys.add(e.group as string);
     for (const f of ['rows', 'effectiveRows', 'weight'] as const) {
       const v = e[f] as Record<string, unknown>;
-      if (typeof v !== 'object' || v === null || !isCount(v.source, f === 'rows') || !isCount(v.target, f === 'rows')) bad(`group "${String(e.group)}": "${f}" is not a pair of sizes`);
+      if (typeof v !== 'object' || v === null || !isCount(v.source, f === 'rows') || !isCount(v.target, f === 'rows'))
+        bad(`group "${String(e.group)}": "${f}" is not a pair of sizes`);
     }
     if (e.map === null) {
       if (typeof e.reason !== 'string') bad(`group "${String(e.group)}" has neither a map nor a reason for the pooled one`);

@@ -84,7 +84,15 @@ export class GroupedMap {
   private appliedOutside = 0;
   private readonly unseen = new Map<string, number>();
 
-  constructor(method: MethodName, d: number, columns: readonly string[] | null, settings: Settings, fallback: GroupFallback, entries: readonly GroupEntry[], pooled: TransportMap | null) {
+  constructor(
+    method: MethodName,
+    d: number,
+    columns: readonly string[] | null,
+    settings: Settings,
+    fallback: GroupFallback,
+    entries: readonly GroupEntry[],
+    pooled: TransportMap | null,
+  ) {
     this.method = method;
     this.d = d;
     this.columns = columns;
@@ -111,7 +119,10 @@ export class GroupedMap {
     if (this.pooled) return this.pooled;
     const known = this.groups();
     throw new RemapError(
-      `${fn}: group "${key}" is not one the map was fitted on (its groups: ${known.slice(0, 12).map((g) => `"${g}"`).join(', ')}${known.length > 12 ? ', ...' : ''}); give values of those groups, or fit again with the pooled fallback.`,
+      `${fn}: group "${key}" is not one the map was fitted on (its groups: ${known
+        .slice(0, 12)
+        .map((g) => `"${g}"`)
+        .join(', ')}${known.length > 12 ? ', ...' : ''}); give values of those groups, or fit again with the pooled fallback.`,
     );
   }
 
@@ -127,7 +138,10 @@ export class GroupedMap {
 
   private run(x: Points, labels: ArrayLike<GroupLabel>, verb: 'apply' | 'invert'): Mapped {
     const fn = `${verb} by group`;
-    if (x.d !== this.d) throw new RemapError(`${fn}: the values have ${x.d} column${x.d === 1 ? '' : 's'} but the map was fitted on ${this.d}; give values with ${this.d} column${this.d === 1 ? '' : 's'}.`);
+    if (x.d !== this.d)
+      throw new RemapError(
+        `${fn}: the values have ${x.d} column${x.d === 1 ? '' : 's'} but the map was fitted on ${this.d}; give values with ${this.d} column${this.d === 1 ? '' : 's'}.`,
+      );
     const split = groupRows(labels, x.n, 'group labels of the values', fn);
     const out = new Float64Array(x.n * x.d);
     let outside = 0;
@@ -153,7 +167,15 @@ export class GroupedMap {
     for (const e of this.entries) {
       const map = e.map ?? this.pooled!;
       const diag = map.diagnostics();
-      groups.push({ group: e.group, rows: e.rows, effectiveRows: e.effectiveRows, weight: e.weight, pooled: e.map === null, cost: diag.cost, warnings: diag.warnings });
+      groups.push({
+        group: e.group,
+        rows: e.rows,
+        effectiveRows: e.effectiveRows,
+        weight: e.weight,
+        pooled: e.map === null,
+        cost: diag.cost,
+        warnings: diag.warnings,
+      });
       num += e.weight.source * diag.cost.w2Squared;
       den += e.weight.source;
     }
@@ -162,7 +184,7 @@ export class GroupedMap {
       warnings.push({
         code: 'small-sample',
         message: `The map fitted on all rows stands in for ${pooledGroups.length} group${pooledGroups.length === 1 ? '' : 's'}: ${pooledGroups.map((e) => `"${e.group}" (${e.reason})`).join('; ')}. Values of those groups are mapped as if they came from the whole population, not their own group.`,
-        action: 'Treat those groups\' results as rough; add rows to them, merge them with a similar group, or leave them out.',
+        action: "Treat those groups' results as rough; add rows to them, merge them with a similar group, or leave them out.",
       });
     }
     let pooledRows = 0;
@@ -185,7 +207,7 @@ export class GroupedMap {
       cost: {
         w2Squared,
         w2: Math.sqrt(w2Squared),
-        note: 'Mean of the groups\' squared 2-Wasserstein costs weighted by each group\'s share of the source weight: the cost of moving every group onto its own target group.',
+        note: "Mean of the groups' squared 2-Wasserstein costs weighted by each group's share of the source weight: the cost of moving every group onto its own target group.",
       },
       applied: { rows: this.appliedRows, outside: this.appliedOutside, pooledRows },
       warnings,
@@ -202,7 +224,14 @@ export class GroupedMap {
       columns: this.columns,
       settings: this.settings,
       fallback: this.fallback,
-      groups: this.entries.map((e) => ({ group: e.group, rows: e.rows, effectiveRows: e.effectiveRows, weight: e.weight, map: e.map ? e.map.toJSON() : null, reason: e.reason })),
+      groups: this.entries.map((e) => ({
+        group: e.group,
+        rows: e.rows,
+        effectiveRows: e.effectiveRows,
+        weight: e.weight,
+        map: e.map ? e.map.toJSON() : null,
+        reason: e.reason,
+      })),
       pooled: this.pooled ? this.pooled.toJSON() : null,
     };
   }

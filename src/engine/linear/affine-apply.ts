@@ -14,15 +14,7 @@ import type { Points } from '../points';
  * @throws RemapError at the first non-finite value in x.
  * @example affineApply(column([1, 5]), f64([0]), f64([2]), f64([10]), f64([0]), f64([4]), 'apply') // { n: 2, d: 1, data: [12, 20], outside: 1 }
  */
-export function affineApply(
-  x: Points,
-  from: Float64Array,
-  matrix: Float64Array,
-  to: Float64Array,
-  lo: Float64Array,
-  hi: Float64Array,
-  verb: string,
-): Mapped {
+export function affineApply(x: Points, from: Float64Array, matrix: Float64Array, to: Float64Array, lo: Float64Array, hi: Float64Array, verb: string): Mapped {
   const { n, d, data } = x;
   if (data.length !== n * d) throw new RemapError(`${verb}: the values hold ${data.length} numbers but n x d = ${n * d}; build them with points().`);
   const out = new Float64Array(n * d);
@@ -34,7 +26,8 @@ export function affineApply(
       const v = data[o + k];
       if (!(v >= lo[k] && v <= hi[k])) {
         // Rare path: outside the range, or not a number at all.
-        if (v - v !== 0) throw new RemapError(`${verb}: row ${i + 1}, column ${k + 1} is ${v}; give finite numbers (blank or text cells are dropped before this step).`);
+        if (v - v !== 0)
+          throw new RemapError(`${verb}: row ${i + 1}, column ${k + 1} is ${v}; give finite numbers (blank or text cells are dropped before this step).`);
         off = true;
       }
       diff[k] = v - from[k];

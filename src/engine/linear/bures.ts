@@ -78,12 +78,14 @@ function matrix(m: MatrixInput, d: number, name: string, fn: string): Float64Arr
     const rows = m as ReadonlyArray<ArrayLike<number>>;
     if (rows.length !== d) throw new RemapError(`${fn}: ${name} has ${rows.length} rows but the means have ${d} entries; give a ${d} x ${d} matrix.`);
     for (let k = 0; k < d; k++) {
-      if (rows[k] == null || rows[k].length !== d) throw new RemapError(`${fn}: ${name} row ${k + 1} has ${rows[k] == null ? 0 : rows[k].length} entries; give a ${d} x ${d} matrix.`);
+      if (rows[k] == null || rows[k].length !== d)
+        throw new RemapError(`${fn}: ${name} row ${k + 1} has ${rows[k] == null ? 0 : rows[k].length} entries; give a ${d} x ${d} matrix.`);
       for (let l = 0; l < d; l++) out[k * d + l] = rows[k][l];
     }
   } else {
     const flat = m as ArrayLike<number>;
-    if (flat.length !== d * d) throw new RemapError(`${fn}: ${name} has ${flat.length} entries but the means have ${d}; give a ${d} x ${d} matrix (${d * d} numbers).`);
+    if (flat.length !== d * d)
+      throw new RemapError(`${fn}: ${name} has ${flat.length} entries but the means have ${d}; give a ${d} x ${d} matrix (${d * d} numbers).`);
     for (let j = 0; j < d * d; j++) out[j] = flat[j];
   }
   let maxAbs = 0;
@@ -96,7 +98,9 @@ function matrix(m: MatrixInput, d: number, name: string, fn: string): Float64Arr
       const u = out[k * d + l];
       const w = out[l * d + k];
       if (Math.abs(u - w) > COVARIANCE_SYMMETRY_TOLERANCE * maxAbs) {
-        throw new RemapError(`${fn}: ${name} is not symmetric: entry (${k + 1}, ${l + 1}) is ${u} but (${l + 1}, ${k + 1}) is ${w}; a covariance matrix must equal its transpose.`);
+        throw new RemapError(
+          `${fn}: ${name} is not symmetric: entry (${k + 1}, ${l + 1}) is ${u} but (${l + 1}, ${k + 1}) is ${w}; a covariance matrix must equal its transpose.`,
+        );
       }
       out[k * d + l] = out[l * d + k] = 0.5 * (u + w);
     }

@@ -95,7 +95,7 @@ export function covarianceCondition(cov: ArrayLike<number>, d: number, ctx: Cond
   // A ridge relative to the smallest column variance (raw) or to each column's own variance (standardised) swamps no column.
   const suggested = standardised ? 1e-6 : Number.isFinite(minVar) ? Number((1e-6 * minVar).toPrecision(2)) : 1e-6;
   const where = standardised
-    ? 'a millionth of each column\'s pooled variance, since the fit is in standardised units'
+    ? "a millionth of each column's pooled variance, since the fit is in standardised units"
     : Number.isFinite(minVar)
       ? 'a millionth of the smallest column variance'
       : 'the data has no varying column to scale it to';

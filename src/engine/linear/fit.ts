@@ -132,17 +132,19 @@ export function linearMapFromSummaries(sum1: LinearSummary, sum2: LinearSummary,
         : 'It is a lower bound on the squared W2 between the samples themselves (Gelbrich 1990), equal to it only when both are Gaussian up to an affine change.') +
       (scales
         ? ` The map was fitted in standardised units (each column divided by its pooled spread), where the same closed form is ${(scaledPart + gt.covarianceTerm).toPrecision(4)}; set units=raw to fit in the data's own units.`
-        : ' The map was fitted in the data\'s own units (units=raw), where the widest column dominates.'),
+        : " The map was fitted in the data's own units (units=raw), where the widest column dominates."),
   };
 
   const effectiveSize = { source: sum1.effectiveSize, target: sum2.effectiveSize };
   const warnings: Warning[] = sizeWarnings(header, effectiveSize);
   if (ridge > 0) {
-    const inUnits = scales ? ' (in standardised units: a share of each column\'s pooled variance)' : '';
+    const inUnits = scales ? " (in standardised units: a share of each column's pooled variance)" : '';
     warnings.push({
       code: 'ridge-added',
       message: `A ridge of ${ridge}${inUnits} was added to every variance of both samples, so the map matches the covariances plus the ridge on the diagonal rather than the covariances themselves.`,
-      action: scales ? 'Keep the ridge small (for example 1e-6); set ridge=0 if no column is constant or collinear.' : 'Keep the ridge small next to the smallest variance of your columns; set ridge=0 if no column is constant or collinear.',
+      action: scales
+        ? 'Keep the ridge small (for example 1e-6); set ridge=0 if no column is constant or collinear.'
+        : 'Keep the ridge small next to the smallest variance of your columns; set ridge=0 if no column is constant or collinear.',
     });
   }
   const worst = Math.min(ratio1, ratio2);

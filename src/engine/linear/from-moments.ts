@@ -34,7 +34,12 @@ export interface GivenMoments {
  *   or a singular covariance (naming the side, as the linear fit does).
  * @example fitLinearFromMoments({ mean: [0], cov: [1], n: 100 }, { mean: [10], cov: [4], n: 100 }).apply(column([1])).data // [12]
  */
-export function fitLinearFromMoments(source: GivenMoments, target: GivenMoments, rawSettings: Readonly<Record<string, unknown>> = {}, ctx: FitContext = {}): LinearMap {
+export function fitLinearFromMoments(
+  source: GivenMoments,
+  target: GivenMoments,
+  rawSettings: Readonly<Record<string, unknown>> = {},
+  ctx: FitContext = {},
+): LinearMap {
   const fn = 'fit (linear, from means and covariances)';
   const settings = resolveSettings('linear', LINEAR_SETTINGS, rawSettings);
   const d = source.mean.length;
@@ -67,14 +72,16 @@ interface Checked {
 function checked(m: GivenMoments, d: number, side: string, fn: string): Checked {
   const vec = (v: ArrayLike<number> | undefined, len: number, what: string, fill: number): Float64Array => {
     if (v === undefined) return new Float64Array(len).fill(fill);
-    if (v.length !== len) throw new RemapError(`${fn}: the ${side} ${what} has ${v.length} numbers; give ${len}${len === d ? ' (one per column)' : ` (a ${d} x ${d} matrix)`}.`);
+    if (v.length !== len)
+      throw new RemapError(`${fn}: the ${side} ${what} has ${v.length} numbers; give ${len}${len === d ? ' (one per column)' : ` (a ${d} x ${d} matrix)`}.`);
     const out = Float64Array.from(v);
     out.forEach((x, i) => {
       if (!Number.isFinite(x)) throw new RemapError(`${fn}: entry ${i + 1} of the ${side} ${what} is ${x}; give finite numbers.`);
     });
     return out;
   };
-  if (!(m.n >= 1) || !Number.isFinite(m.n)) throw new RemapError(`${fn}: the ${side} row count is ${m.n}; give the number of rows the summary came from (at least 1).`);
+  if (!(m.n >= 1) || !Number.isFinite(m.n))
+    throw new RemapError(`${fn}: the ${side} row count is ${m.n}; give the number of rows the summary came from (at least 1).`);
   const mean = vec(m.mean, d, 'means', 0);
   const cov = vec(m.cov, d * d, 'covariance', 0);
   let scale = 0;
@@ -83,13 +90,18 @@ function checked(m: GivenMoments, d: number, side: string, fn: string): Checked 
     for (let k = i + 1; k < d; k++) {
       const a = cov[i * d + k];
       const b = cov[k * d + i];
-      if (Math.abs(a - b) > 1e-9 * scale) throw new RemapError(`${fn}: the ${side} covariance is not symmetric (row ${i + 1}, column ${k + 1} is ${a} but row ${k + 1}, column ${i + 1} is ${b}); give a covariance matrix.`);
+      if (Math.abs(a - b) > 1e-9 * scale)
+        throw new RemapError(
+          `${fn}: the ${side} covariance is not symmetric (row ${i + 1}, column ${k + 1} is ${a} but row ${k + 1}, column ${i + 1} is ${b}); give a covariance matrix.`,
+        );
       // Summaries from a database may differ in the last digit: take the mean of the two.
       cov[i * d + k] = cov[k * d + i] = 0.5 * (a + b);
     }
   }
   const min = vec(m.min, d, 'minimums', -Number.MAX_VALUE);
   const max = vec(m.max, d, 'maximums', Number.MAX_VALUE);
-  for (let k = 0; k < d; k++) if (!(min[k] <= max[k])) throw new RemapError(`${fn}: the ${side} minimum of column ${k + 1} (${min[k]}) is above its maximum (${max[k]}); check the summary.`);
+  for (let k = 0; k < d; k++)
+    if (!(min[k] <= max[k]))
+      throw new RemapError(`${fn}: the ${side} minimum of column ${k + 1} (${min[k]}) is above its maximum (${max[k]}); check the summary.`);
   return { mean, cov, min, max };
 }

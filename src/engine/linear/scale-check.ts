@@ -21,7 +21,10 @@ export const MAX_VARIANCE_PRODUCT = 1e290;
 export function checkLinearScale(var1: ArrayLike<number>, var2: ArrayLike<number>, varies1: ArrayLike<boolean>, varies2: ArrayLike<boolean>, fn: string): void {
   let big1 = 0;
   let big2 = 0;
-  for (const [v, varies, name] of [[var1, varies1, 'source'], [var2, varies2, 'target']] as const) {
+  for (const [v, varies, name] of [
+    [var1, varies1, 'source'],
+    [var2, varies2, 'target'],
+  ] as const) {
     for (let k = 0; k < v.length; k++) {
       if (varies[k] && !(v[k] >= MIN_VARIANCE)) {
         throw new RemapError(

@@ -12,7 +12,7 @@ export const LINEAR_SETTINGS = [
     default: 0,
     min: 0,
     describe:
-      'Added to every variance of both samples before fitting (default 0), in the fitted units: with units=standardised a share of each column\'s pooled variance (1e-6 is a good start), with units=raw the data\'s own squared units (about 1e-6 times the smallest column variance). Set it when a column is constant or columns are collinear.',
+      "Added to every variance of both samples before fitting (default 0), in the fitted units: with units=standardised a share of each column's pooled variance (1e-6 is a good start), with units=raw the data's own squared units (about 1e-6 times the smallest column variance). Set it when a column is constant or columns are collinear.",
   },
   UNITS_SETTING,
 ] as const satisfies readonly SettingSpec[];

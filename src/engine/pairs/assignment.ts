@@ -73,11 +73,15 @@ export function solveAssignment(cost: Float64Array, n: number, options: Assignme
   }
   if (!(cost instanceof Float64Array) || cost.length !== n * n) {
     const got = cost instanceof Float64Array ? `${cost.length} entries` : 'not a Float64Array';
-    throw new RemapError(`${fn}: the cost table must be a Float64Array of n x n = ${n * n} entries, but it is ${got}; give one cost per (row, column) pair, row by row.`);
+    throw new RemapError(
+      `${fn}: the cost table must be a Float64Array of n x n = ${n * n} entries, but it is ${got}; give one cost per (row, column) pair, row by row.`,
+    );
   }
   for (let t = 0; t < cost.length; t++) {
     if (!Number.isFinite(cost[t])) {
-      throw new RemapError(`${fn}: the cost in row ${Math.floor(t / n) + 1}, column ${(t % n) + 1} is not a finite number (${cost[t]}); every cost must be finite.`);
+      throw new RemapError(
+        `${fn}: the cost in row ${Math.floor(t / n) + 1}, column ${(t % n) + 1} is not a finite number (${cost[t]}); every cost must be finite.`,
+      );
     }
   }
   const { signal, onProgress } = options;

@@ -24,7 +24,11 @@ const FINAL_RELATIVE = 1e-7;
  * @example auctionPrices(Float64Array.from([6, 2, 9, 1, 7, 4, 8, 3, 5]), 3) // prices under which rows 0, 1, 2 prefer columns 1, 0, 2
  */
 export function auctionPrices(
-  c: Float64Array, n: number, signal?: { readonly aborted: boolean }, fn = 'auctionPrices', onProgress?: (p: Progress) => void,
+  c: Float64Array,
+  n: number,
+  signal?: { readonly aborted: boolean },
+  fn = 'auctionPrices',
+  onProgress?: (p: Progress) => void,
 ): Float64Array {
   const started = Date.now();
   let lo = Infinity;
@@ -83,7 +87,13 @@ export function auctionPrices(
       }
     }
     phase++;
-    onProgress?.({ step: phase, of: phases, loss: eps, elapsedMs: Date.now() - started, message: `pricing columns: auction phase ${phase} of about ${phases}` });
+    onProgress?.({
+      step: phase,
+      of: phases,
+      loss: eps,
+      elapsedMs: Date.now() - started,
+      message: `pricing columns: auction phase ${phase} of about ${phases}`,
+    });
     if (last) break;
   }
   return v;

@@ -70,7 +70,9 @@ export function findPairs(
 ): RowMatch {
   const fn = options.caller ?? 'findPairs';
   if (source.d !== target.d) {
-    throw new RemapError(`${fn}: the source has ${source.d} column${source.d === 1 ? '' : 's'} and the target ${target.d}; give both the same columns in the same order.`);
+    throw new RemapError(
+      `${fn}: the source has ${source.d} column${source.d === 1 ? '' : 's'} and the target ${target.d}; give both the same columns in the same order.`,
+    );
   }
   if (source.n !== target.n) {
     throw new RemapError(
@@ -107,7 +109,10 @@ export function findPairs(
   }
   const meanSquaredDistance = sum / n;
   if (!Number.isFinite(meanSquaredDistance)) {
-    throw new RemapError(`${fn}: the squared distances between the rows are too large to represent (the values reach about ${maxAbs(source, target).toExponential(1)}); rescale the columns (for example to thousands or millions) and fit again.`, 'num');
+    throw new RemapError(
+      `${fn}: the squared distances between the rows are too large to represent (the values reach about ${maxAbs(source, target).toExponential(1)}); rescale the columns (for example to thousands or millions) and fit again.`,
+      'num',
+    );
   }
   return { match: a.rowToCol, meanSquaredDistance, augmentations: a.augmentations };
 }

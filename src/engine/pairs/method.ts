@@ -29,7 +29,9 @@ import { PairsMap } from './pairs-map';
 export function fitPairs(source: Sample, target: Sample, settings: Settings, ctx: FitContext = {}): PairsMap {
   const fn = 'fit (pairs)';
   if (source.weights || target.weights) {
-    throw new RemapError(`${fn}: the pairs method does not take row weights (it pairs rows one to one); leave the weights out, or use the entropic method, which takes them.`);
+    throw new RemapError(
+      `${fn}: the pairs method does not take row weights (it pairs rows one to one); leave the weights out, or use the entropic method, which takes them.`,
+    );
   }
   // units = standardised (default): pair the rows for the cost that divides each column by its pooled spread.
   const units = settingsOf(PAIRS_SETTINGS, settings, 'pairs').units;

@@ -204,7 +204,8 @@ function fitRecord(raw: Points, rawTarget: Points, match: Int32Array, header: Ma
     warnings.push({
       code: 'ties',
       message: `Some rows repeat (${n - srcLook.groups} repeated source rows, ${n - tgtLook.groups} repeated target rows); repeated rows may be paired with different partners.`,
-      action: 'Applying the map to a repeated source value returns the average of its partners (inverting a repeated target value, the average of its sources); use the pairs table for row-by-row partners.',
+      action:
+        'Applying the map to a repeated source value returns the average of its partners (inverting a repeated target value, the average of its sources); use the pairs table for row-by-row partners.',
     });
   }
   const check = twoCycleCheck(source, target, match);
@@ -233,7 +234,9 @@ function checkShapes(source: Points, target: Points, header: MapHeader, fn: stri
     throw new RemapError(`${fn}: the source has ${source.d} columns, the target ${target.d} and the header ${header.d}; they must agree.`);
   }
   if (source.n !== target.n) {
-    throw new RemapError(`${fn}: the source has ${source.n} rows and the target ${target.n}; the pairs method needs the same number of rows in both (use the entropic method for unequal sizes).`);
+    throw new RemapError(
+      `${fn}: the source has ${source.n} rows and the target ${target.n}; the pairs method needs the same number of rows in both (use the entropic method for unequal sizes).`,
+    );
   }
   if (source.n < 1) throw new RemapError(`${fn}: the samples have no rows; give at least one row in each.`);
 }
@@ -247,7 +250,9 @@ function checkPermutation(raw: unknown, n: number, fn: string): Int32Array {
   for (let i = 0; i < n; i++) {
     const j = raw[i] as unknown;
     if (typeof j !== 'number' || !Number.isInteger(j) || j < 0 || j >= n || seen[j]) {
-      throw new RemapError(`${fn}: entry ${i + 1} of the permutation (${String(j)}) must be a whole number from 0 to ${n - 1} not used before; each target row is paired once.`);
+      throw new RemapError(
+        `${fn}: entry ${i + 1} of the permutation (${String(j)}) must be a whole number from 0 to ${n - 1} not used before; each target row is paired once.`,
+      );
     }
     seen[j] = 1;
     out[i] = j;

@@ -107,7 +107,12 @@ export interface Compacted {
 export function compactToBudget(xs: Float64Array, ys: Float64Array, budget: number, ratioX = Infinity): Compacted {
   if (!(budget >= 4)) throw new RemapError(`compact knots: the knots setting must be at least 4 (or 0 for the automatic choice), not ${budget}.`);
   const K = xs.length;
-  if (K <= budget) return compacted(xs, ys, Uint32Array.from({ length: K }, (_, i) => i));
+  if (K <= budget)
+    return compacted(
+      xs,
+      ys,
+      Uint32Array.from({ length: K }, (_, i) => i),
+    );
   let lo = 0;
   let hi = ys[K - 1] - ys[0];
   let best = compactIndices(xs, ys, hi, hi * ratioX);

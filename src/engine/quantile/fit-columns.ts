@@ -1,5 +1,5 @@
 import { RemapError } from '../errors';
-import { fitHeader, jsonHeader, type MapHeader } from '../base';
+import { fitHeader, jsonHeader } from '../base';
 import { sizeWarnings } from '../base';
 import type { CostReport, FitContext, FitRecord, MapJSON, MethodName, Warning } from '../map';
 import { columnOf, type Sample } from '../points';
@@ -63,7 +63,10 @@ export function fitOneColumnMap(recipe: ColumnRecipe, source: Sample, target: Sa
     const slope = c.forward.minSlope();
     if (slope < minSlope) minSlope = slope;
     if (recipe.warnTies && s.tiedRows > 0) tied.push(`${s.tiedRows} of ${s.rows} in ${columnName(ctx, k)}`);
-    if (c.compaction) compacted.push(`${columnName(ctx, k)}: ${c.compaction.knots} of ${c.compaction.fullKnots} knots, largest difference ${c.compaction.largestError.toPrecision(3)} in mapped values (${c.compaction.largestErrorInverse.toPrecision(3)} inverting)`);
+    if (c.compaction)
+      compacted.push(
+        `${columnName(ctx, k)}: ${c.compaction.knots} of ${c.compaction.fullKnots} knots, largest difference ${c.compaction.largestError.toPrecision(3)} in mapped values (${c.compaction.largestErrorInverse.toPrecision(3)} inverting)`,
+      );
   }
   const effectiveSize = { source: kishEffectiveSize(source.weights, source.n), target: kishEffectiveSize(target.weights, target.n) };
   const warnings: Warning[] = sizeWarnings(header, effectiveSize);
@@ -132,7 +135,9 @@ export function restoreOneColumnMap(recipe: ColumnRecipe, json: MapJSON): OneCol
   const params = json.params as { columns?: unknown } | null;
   const saved = params && typeof params === 'object' ? params.columns : undefined;
   if (!Array.isArray(saved) || saved.length !== json.d) {
-    throw new RemapError(`${where}: the saved map should hold ${json.d} fitted column${json.d === 1 ? '' : 's'} but does not; the saved map is damaged. Fit the map again.`);
+    throw new RemapError(
+      `${where}: the saved map should hold ${json.d} fitted column${json.d === 1 ? '' : 's'} but does not; the saved map is damaged. Fit the map again.`,
+    );
   }
   const columns = saved.map((raw, k) => recipe.restore(raw, `${where}, column ${k + 1}`));
   const header = { ...jsonHeader(json), method: recipe.method };

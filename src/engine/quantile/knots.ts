@@ -54,7 +54,8 @@ export function buildKnots(src: ShareGrid, tgt: ShareGrid, strict: boolean): Kno
   // stops a grid holding NaN (which consumes nothing) from looping for ever.
   for (let pass = 0; (i < ns || j < nt) && pass <= ns + nt; pass++) {
     const p = Math.min(i < ns ? ps[i] : Infinity, j < nt ? pt[j] : Infinity);
-    if (!(p === p)) throw new RemapError('buildKnots: a share position is not a number (weights too large or too small to add up); rescale the weights.', 'num');
+    if (!(p === p))
+      throw new RemapError('buildKnots: a share position is not a number (weights too large or too small to add up); rescale the weights.', 'num');
     if (p > pHi) break;
     let xa: number;
     let xb: number;

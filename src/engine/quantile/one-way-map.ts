@@ -21,7 +21,9 @@ export type Tails = 'clamp' | 'linear';
  *           first (last) knot segment of positive width, 0 if there is none.
  * Results for the same input are bit-identical whichever search is used
  * (binary search, bucket index, or a merge walk for ascending input).
- * @example new OneWayMap(Float64Array.of(0, 1, 3), Float64Array.of(0, 10, 20), 'linear', 0, 3).evaluate(Float64Array.of(2, 5), out, 'linear', null) // out = [15, 25], returns 1
+ * @example
+ * new OneWayMap(Float64Array.of(0, 1, 3), Float64Array.of(0, 10, 20), 'linear', 0, 3)
+ *   .evaluate(Float64Array.of(2, 5), out, 'linear', null) // out = [15, 25], returns 1
  */
 export class OneWayMap {
   readonly keys: Float64Array;
@@ -257,7 +259,6 @@ export class OneWayMap {
     if (x < this.lo) return tails === 'linear' ? this.vals[0] + this.slopeLo * (x - this.lo) : this.vals[0];
     return tails === 'linear' ? this.vals[K - 1] + this.slopeHi * (x - this.hi) : this.vals[K - 1];
   }
-
 }
 
 /**

@@ -20,4 +20,7 @@ const recipe: ColumnRecipe = {
  * Fit cost O(d (n log n + m log m)).
  * @example await fitMap('ordinal', sample([0, 1]), sample([0, 2])) // apply([0, 1]) gives [0, 2]
  */
-export const ordinalMethod: MethodSpec = oneColumnMethod(recipe, 'Equipercentile map of whole-number scores (percentile ranks, each score spread over its unit interval).');
+export const ordinalMethod: MethodSpec = oneColumnMethod(
+  recipe,
+  'Equipercentile map of whole-number scores (percentile ranks, each score spread over its unit interval).',
+);

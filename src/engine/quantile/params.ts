@@ -29,8 +29,12 @@ export function readNumbers(
   minLength: number,
 ): Float64Array {
   const raw = rec[key];
-  if (!Array.isArray(raw)) throw new RemapError(`${where}: the field "${key}" is missing or not a list of numbers; the saved map is damaged. Fit the map again.`);
-  if (raw.length < minLength) throw new RemapError(`${where}: the field "${key}" has ${raw.length} numbers but needs at least ${minLength}; the saved map is damaged. Fit the map again.`);
+  if (!Array.isArray(raw))
+    throw new RemapError(`${where}: the field "${key}" is missing or not a list of numbers; the saved map is damaged. Fit the map again.`);
+  if (raw.length < minLength)
+    throw new RemapError(
+      `${where}: the field "${key}" has ${raw.length} numbers but needs at least ${minLength}; the saved map is damaged. Fit the map again.`,
+    );
   const out = new Float64Array(raw.length);
   for (let i = 0; i < raw.length; i++) {
     const v = raw[i];
@@ -47,7 +51,8 @@ export function readNumbers(
 
 /** Checks two arrays have the same length. @throws RemapError otherwise. */
 export function sameLength(a: Float64Array, b: Float64Array, names: string, where: string): void {
-  if (a.length !== b.length) throw new RemapError(`${where}: ${names} have ${a.length} and ${b.length} numbers; they must match. The saved map is damaged; fit the map again.`);
+  if (a.length !== b.length)
+    throw new RemapError(`${where}: ${names} have ${a.length} and ${b.length} numbers; they must match. The saved map is damaged; fit the map again.`);
 }
 
 /** Plain number array for JSON. */

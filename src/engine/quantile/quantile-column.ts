@@ -33,17 +33,27 @@ import { plain, readNumbers, readRecord, sameLength } from './params';
  * @example quantileColumn(weightedCdf([1, 2, 3]), weightedCdf([10, 20, 40]), 'fit').forward.vals // [10, 20, 40]
  */
 export function quantileColumn(src: WeightedCdf, tgt: WeightedCdf, where: string, knots = 0): ColumnMap {
-  for (const [cdf, side] of [[src, 'source'], [tgt, 'target']] as const) {
+  for (const [cdf, side] of [
+    [src, 'source'],
+    [tgt, 'target'],
+  ] as const) {
     if (cdf.values.length < 2) {
-      throw new RemapError(`${where}: every ${side} row with positive weight holds the same value (${cdf.values[0]}); a continuous map needs at least two different values on each side. Check the range, or use method linear.`, 'num');
+      throw new RemapError(
+        `${where}: every ${side} row with positive weight holds the same value (${cdf.values[0]}); a continuous map needs at least two different values on each side. Check the range, or use method linear.`,
+        'num',
+      );
     }
   }
   // Equal grids (equal sizes and weights): buildKnots would return the value arrays themselves.
   const { xs, ys } = sameHazenGrids(src, tgt) ? { xs: src.values, ys: tgt.values } : buildKnots(hazenGrid(src), hazenGrid(tgt), true);
   if (xs.length < 2) {
-    throw new RemapError(`${where}: the source and target positions collapse to a single point (values too close together to tell apart); rescale the data.`, 'num');
+    throw new RemapError(
+      `${where}: the source and target positions collapse to a single point (values too close together to tell apart); rescale the data.`,
+      'num',
+    );
   }
-  if (knots > 0 && knots < 4) throw new RemapError(`${where}: the knots setting must be 0 (the automatic choice) or at least 4, not ${knots}; a map needs its two end segments.`);
+  if (knots > 0 && knots < 4)
+    throw new RemapError(`${where}: the knots setting must be 0 (the automatic choice) or at least 4, not ${knots}; a map needs its two end segments.`);
   const sLo = src.values[0];
   const tLo0 = tgt.values[0];
   const tHi0 = tgt.values[tgt.values.length - 1];

@@ -21,4 +21,7 @@ const recipe: ColumnRecipe = {
  * Fit cost O(d (n log n + m log m)); apply O(n d) for large or sorted input.
  * @example await fitMap('quantile', sample([1, 2, 3]), sample([10, 20, 40])) // apply([2]) gives [20]
  */
-export const quantileMethod: MethodSpec = oneColumnMethod(recipe, 'Continuous monotone map of each column: matches quantiles and interpolates linearly between them.');
+export const quantileMethod: MethodSpec = oneColumnMethod(
+  recipe,
+  'Continuous monotone map of each column: matches quantiles and interpolates linearly between them.',
+);

@@ -18,7 +18,7 @@ export const QUANTILE_SETTINGS = [
     min: 0,
     max: 1e9,
     describe:
-      'How many knots the map keeps. 0 (default): every knot up to 4,096, above that the fewest that stay within 5e-4 of the target\'s interquartile range of the full map; ' +
+      "How many knots the map keeps. 0 (default): every knot up to 4,096, above that the fewest that stay within 5e-4 of the target's interquartile range of the full map; " +
       'a number K >= 4: at most K knots, as close to the full map as K allows. The report states the largest difference from the full map. Set it above the row count to keep every knot.',
   },
 ] as const satisfies readonly SettingSpec[];

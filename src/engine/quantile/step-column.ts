@@ -19,9 +19,15 @@ import { stepTable } from './step-table';
  * @example stepColumn(weightedCdf([1, 2, 3]), weightedCdf([10, 20, 40]), 'fit').forward.vals // [10, 20, 40]
  */
 export function stepColumn(src: WeightedCdf, tgt: WeightedCdf, where: string): ColumnMap {
-  for (const [cdf, side] of [[src, 'source'], [tgt, 'target']] as const) {
+  for (const [cdf, side] of [
+    [src, 'source'],
+    [tgt, 'target'],
+  ] as const) {
     if (cdf.values.length < 2) {
-      throw new RemapError(`${where}: every ${side} row with positive weight holds the same value (${cdf.values[0]}); the step map needs at least two different values on each side. Check the range.`, 'num');
+      throw new RemapError(
+        `${where}: every ${side} row with positive weight holds the same value (${cdf.values[0]}); the step map needs at least two different values on each side. Check the range.`,
+        'num',
+      );
     }
   }
   return make(src.values.slice(), stepTable(src, tgt), tgt.values.slice(), stepTable(tgt, src));

@@ -15,10 +15,14 @@ export function checkWholeNumbers(values: ArrayLike<number>, where: string): voi
   for (let i = 0; i < values.length; i++) {
     const v = values[i];
     if (!Number.isInteger(v)) {
-      throw new RemapError(`${where}, row ${i + 1} holds ${v}, which is not a whole number; the ordinal method is for whole-number scores. Use method quantile for measured values.`);
+      throw new RemapError(
+        `${where}, row ${i + 1} holds ${v}, which is not a whole number; the ordinal method is for whole-number scores. Use method quantile for measured values.`,
+      );
     }
     if (Math.abs(v) > MAX_WHOLE_SCORE) {
-      throw new RemapError(`${where}, row ${i + 1} holds ${v}, larger than ${MAX_WHOLE_SCORE} in size; the ordinal method takes scores up to that size. Use method quantile for such values.`);
+      throw new RemapError(
+        `${where}, row ${i + 1} holds ${v}, larger than ${MAX_WHOLE_SCORE} in size; the ordinal method takes scores up to that size. Use method quantile for such values.`,
+      );
     }
   }
 }

@@ -34,7 +34,7 @@ export const UNITS_SETTING = {
   default: 'standardised',
   choices: ['standardised', 'raw'],
   describe:
-    'standardised (default): fit with each column divided by its pooled spread, so columns in different units count alike (the map is optimal for that weighted cost); raw: plain squared distance in the data\'s own units, where the widest column dominates.',
+    "standardised (default): fit with each column divided by its pooled spread, so columns in different units count alike (the map is optimal for that weighted cost); raw: plain squared distance in the data's own units, where the widest column dominates.",
 } as const satisfies SettingSpec;
 
 /**

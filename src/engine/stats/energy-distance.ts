@@ -51,13 +51,7 @@ export const ENERGY_MAX_ROWS = 2000;
  * @throws RemapError for different column counts, empty samples, non-finite values, bad weights or options.
  * @example energyDistance(column([0]), column([1])) // { value: 2, subsampled: false, rows: { a: 1, b: 1 } }
  */
-export function energyDistance(
-  a: Points,
-  b: Points,
-  wa?: ArrayLike<number> | null,
-  wb?: ArrayLike<number> | null,
-  options: EnergyOptions = {},
-): EnergyResult {
+export function energyDistance(a: Points, b: Points, wa?: ArrayLike<number> | null, wb?: ArrayLike<number> | null, options: EnergyOptions = {}): EnergyResult {
   const fn = 'energyDistance';
   const maxRows = options.maxRows ?? ENERGY_MAX_ROWS;
   const seed = options.seed ?? 0;
@@ -100,7 +94,8 @@ function checkShape(p: Points, name: string, fn: string): void {
 
 function checkFinite(p: Points, name: string, fn: string): void {
   for (let j = 0; j < p.data.length; j++) {
-    if (!Number.isFinite(p.data[j])) throw new RemapError(`${fn}: ${name} holds ${p.data[j]} in row ${Math.floor(j / p.d) + 1}, column ${(j % p.d) + 1}; give finite numbers only.`);
+    if (!Number.isFinite(p.data[j]))
+      throw new RemapError(`${fn}: ${name} holds ${p.data[j]} in row ${Math.floor(j / p.d) + 1}, column ${(j % p.d) + 1}; give finite numbers only.`);
   }
 }
 

@@ -28,7 +28,8 @@ export function checkedCdf(values: ArrayLike<number>, weights: ArrayLike<number>
     if (!(w >= 0) || !Number.isFinite(w)) throw new RemapError(`${fn}: weight ${i + 1} of ${name} is ${w}; weights must be finite and zero or positive.`);
     total += w;
   }
-  if (!(total > 0) || !Number.isFinite(total)) throw new RemapError(`${fn}: the weights of ${name} add up to ${total}; give at least one positive weight (and rescale huge ones).`);
+  if (!(total > 0) || !Number.isFinite(total))
+    throw new RemapError(`${fn}: the weights of ${name} add up to ${total}; give at least one positive weight (and rescale huge ones).`);
   return weightedCdf(values, weights);
 }
 

@@ -42,7 +42,8 @@ export function weightedMoments(p: Points, weights?: ArrayLike<number> | null): 
   const { n, d, data } = p;
   if (!(Number.isInteger(n) && n >= 1)) throw new RemapError(`${fn}: the sample has ${n} rows; give at least one row.`);
   if (!(Number.isInteger(d) && d >= 1)) throw new RemapError(`${fn}: the sample has ${d} columns; give at least one column.`);
-  if (data.length !== n * d) throw new RemapError(`${fn}: the data holds ${data.length} numbers but n x d = ${n * d}; build the points with points() or sample().`);
+  if (data.length !== n * d)
+    throw new RemapError(`${fn}: the data holds ${data.length} numbers but n x d = ${n * d}; build the points with points() or sample().`);
   const mean = new Float64Array(d);
   const acc = new Float64Array(d * d);
   // The column ranges come with the mean pass for free (the linear map needs both).
@@ -69,7 +70,8 @@ export function weightedMoments(p: Points, weights?: ArrayLike<number> | null): 
       if (!(w >= 0) || !Number.isFinite(w)) throw new RemapError(`${fn}: weight ${i + 1} is ${w}; weights must be finite and zero or positive.`);
       total += w;
     }
-    if (!(total > 0) || !Number.isFinite(total)) throw new RemapError(`${fn}: the weights add up to ${total}; give at least one positive weight (and rescale huge ones).`);
+    if (!(total > 0) || !Number.isFinite(total))
+      throw new RemapError(`${fn}: the weights add up to ${total}; give at least one positive weight (and rescale huge ones).`);
     for (let i = 0, j = 0; i < n; i++) {
       const w = weights[i];
       for (let k = 0; k < d; k++, j++) {
@@ -108,7 +110,8 @@ export function weightedMoments(p: Points, weights?: ArrayLike<number> | null): 
   }
 
   for (let k = 0; k < d; k++) {
-    if (!Number.isFinite(mean[k])) throw new RemapError(`${fn}: column ${k + 1} holds a non-finite or too large value (its mean is ${mean[k]}); remove or rescale it.`);
+    if (!Number.isFinite(mean[k]))
+      throw new RemapError(`${fn}: column ${k + 1} holds a non-finite or too large value (its mean is ${mean[k]}); remove or rescale it.`);
     for (let l = k; l < d; l++) {
       const v = acc[k * d + l] / total;
       if (!Number.isFinite(v)) throw new RemapError(`${fn}: columns ${k + 1} and ${l + 1} hold values too large to square (covariance ${v}); rescale them.`);

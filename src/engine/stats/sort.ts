@@ -218,8 +218,8 @@ export function radixSort(values: Float64Array, withOrder: boolean): RadixSorted
   let aI: Uint32Array | null = null; // null: rows are still in input order
   let bF: Float64Array | null = null;
   let bI: Uint32Array | null = null;
-  let cF: Float64Array | null = null;
-  let cI: Uint32Array | null = null;
+  const cF: Float64Array | null = null;
+  const cI: Uint32Array | null = null;
   const pos = new Int32Array(RADIX);
   for (let d = 0; d < 6; d++) {
     const base = d * RADIX;
@@ -309,7 +309,17 @@ function scatterRows(aF: Float64Array, aW: Uint32Array, bF: Float64Array, bI: Ui
   }
 }
 
-function scatterOrder(aF: Float64Array, aW: Uint32Array, aI: Uint32Array, bF: Float64Array, bI: Uint32Array, word: number, shift: number, pos: Int32Array, n: number): void {
+function scatterOrder(
+  aF: Float64Array,
+  aW: Uint32Array,
+  aI: Uint32Array,
+  bF: Float64Array,
+  bI: Uint32Array,
+  word: number,
+  shift: number,
+  pos: Int32Array,
+  n: number,
+): void {
   for (let i = 0; i < n; i++) {
     const t = pos[(aW[2 * i + word] >>> shift) & 2047]++;
     bF[t] = aF[i];

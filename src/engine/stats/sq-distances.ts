@@ -44,7 +44,8 @@ export function squaredDistancesRow(x: Points, i: number, y: Points, out: Float6
   const d = x.d;
   if (y.d !== d) throw new RemapError(`squaredDistancesRow: x has ${d} columns but y has ${y.d}; give both the same columns.`);
   if (!(i >= 0 && i < x.n)) throw new RemapError(`squaredDistancesRow: row index ${i} is outside 0..${x.n - 1}; give a row of x.`);
-  if (out.length < offset + y.n) throw new RemapError(`squaredDistancesRow: out holds ${out.length} values but ${offset + y.n} are needed; give a longer array.`);
+  if (out.length < offset + y.n)
+    throw new RemapError(`squaredDistancesRow: out holds ${out.length} values but ${offset + y.n} are needed; give a longer array.`);
   const xd = x.data;
   const yd = y.data;
   const xo = i * d;
@@ -81,7 +82,9 @@ export function squaredDistances(x: Points, y: Points, scale = 1): Float64Array 
   if (y.d !== x.d) throw new RemapError(`squaredDistances: x has ${x.d} columns but y has ${y.d}; give both the same columns.`);
   const size = x.n * y.n;
   if (size > 2 ** 27) {
-    throw new RemapError(`squaredDistances: ${x.n} x ${y.n} distances need ${(size * 8 / 2 ** 30).toFixed(1)} GB; work row by row with squaredDistancesRow or give fewer rows.`);
+    throw new RemapError(
+      `squaredDistances: ${x.n} x ${y.n} distances need ${((size * 8) / 2 ** 30).toFixed(1)} GB; work row by row with squaredDistancesRow or give fewer rows.`,
+    );
   }
   const out = new Float64Array(size);
   for (let i = 0; i < x.n; i++) squaredDistancesRow(x, i, y, out, i * y.n, scale);

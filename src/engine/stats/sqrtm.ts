@@ -37,7 +37,10 @@ export function psdEigen(matrix: ArrayLike<number>, d: number, name: string, fn:
   const { values } = eig;
   const scale = Math.max(Math.abs(values[0]), Math.abs(values[d - 1]));
   if (values[0] < -PSD_TOLERANCE * scale) {
-    throw new RemapError(`${fn}: ${name} is not positive semidefinite (its smallest eigenvalue is ${values[0].toPrecision(4)}, its largest ${values[d - 1].toPrecision(4)}); give a covariance matrix.`, 'num');
+    throw new RemapError(
+      `${fn}: ${name} is not positive semidefinite (its smallest eigenvalue is ${values[0].toPrecision(4)}, its largest ${values[d - 1].toPrecision(4)}); give a covariance matrix.`,
+      'num',
+    );
   }
   const clipped = Float64Array.from(values, (x) => (x < 0 ? 0 : x));
   return { d, values: clipped, vectors: eig.vectors, sweeps: eig.sweeps };
@@ -70,7 +73,10 @@ export function psdInverseSqrt(matrix: ArrayLike<number>, d: number): Float64Arr
   const lo = eig.values[0];
   const hi = eig.values[d - 1];
   if (!(hi > 0) || lo < SINGULAR_RATIO * hi) {
-    throw new RemapError(`psdInverseSqrt: the matrix is singular or nearly so (smallest eigenvalue ${lo.toPrecision(3)}, largest ${hi.toPrecision(3)}, ratio below ${SINGULAR_RATIO}); it has no usable inverse square root.`, 'num');
+    throw new RemapError(
+      `psdInverseSqrt: the matrix is singular or nearly so (smallest eigenvalue ${lo.toPrecision(3)}, largest ${hi.toPrecision(3)}, ratio below ${SINGULAR_RATIO}); it has no usable inverse square root.`,
+      'num',
+    );
   }
   return spectralFunction(eig, (x) => 1 / Math.sqrt(x));
 }

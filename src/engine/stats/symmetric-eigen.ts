@@ -40,8 +40,10 @@ export const MAX_JACOBI_SWEEPS = 100;
 export function symmetricEigen(matrix: ArrayLike<number>, d: number, maxSweeps: number = MAX_JACOBI_SWEEPS): SymmetricEigen {
   const fn = 'symmetricEigen';
   if (!(Number.isInteger(d) && d >= 1)) throw new RemapError(`${fn}: the size d is ${d}; give a whole number of at least 1.`);
-  if (matrix.length !== d * d) throw new RemapError(`${fn}: the matrix has ${matrix.length} entries but a ${d} x ${d} matrix needs ${d * d}; give it row by row.`);
-  if (!(Number.isInteger(maxSweeps) && maxSweeps >= 1 && maxSweeps <= 1000)) throw new RemapError(`${fn}: maxSweeps is ${maxSweeps}; give a whole number from 1 to 1000.`);
+  if (matrix.length !== d * d)
+    throw new RemapError(`${fn}: the matrix has ${matrix.length} entries but a ${d} x ${d} matrix needs ${d * d}; give it row by row.`);
+  if (!(Number.isInteger(maxSweeps) && maxSweeps >= 1 && maxSweeps <= 1000))
+    throw new RemapError(`${fn}: maxSweeps is ${maxSweeps}; give a whole number from 1 to 1000.`);
   let maxAbs = 0;
   for (let j = 0; j < d * d; j++) {
     const v = matrix[j];
@@ -55,7 +57,9 @@ export function symmetricEigen(matrix: ArrayLike<number>, d: number, maxSweeps: 
       const u = matrix[k * d + l];
       const w = matrix[l * d + k];
       if (Math.abs(u - w) > SYMMETRY_TOLERANCE * maxAbs) {
-        throw new RemapError(`${fn}: the matrix is not symmetric: entry (${k + 1}, ${l + 1}) is ${u} but (${l + 1}, ${k + 1}) is ${w}; give a symmetric matrix.`);
+        throw new RemapError(
+          `${fn}: the matrix is not symmetric: entry (${k + 1}, ${l + 1}) is ${u} but (${l + 1}, ${k + 1}) is ${w}; give a symmetric matrix.`,
+        );
       }
       const s = 0.5 * (u + w);
       a[k * d + l] = s;
@@ -125,7 +129,10 @@ export function symmetricEigen(matrix: ArrayLike<number>, d: number, maxSweeps: 
       for (let q = p + 1; q < d; q++) off = Math.max(off, Math.abs(a[p * d + q]));
     }
     if (off > 1e-14 * diag) {
-      throw new RemapError(`${fn}: the Jacobi iteration did not converge in ${maxSweeps} sweeps (largest off-diagonal entry ${off.toExponential(2)}); check the matrix for extreme scales.`, 'num');
+      throw new RemapError(
+        `${fn}: the Jacobi iteration did not converge in ${maxSweeps} sweeps (largest off-diagonal entry ${off.toExponential(2)}); check the matrix for extreme scales.`,
+        'num',
+      );
     }
   }
 
@@ -157,7 +164,8 @@ export function spectralFunction(eig: SymmetricEigen, f: (lambda: number) => num
   const fv = new Float64Array(d);
   for (let j = 0; j < d; j++) {
     fv[j] = f(values[j]);
-    if (!Number.isFinite(fv[j])) throw new RemapError(`spectralFunction: the function gives ${fv[j]} at eigenvalue ${values[j]}; the matrix is outside the function's domain.`, 'num');
+    if (!Number.isFinite(fv[j]))
+      throw new RemapError(`spectralFunction: the function gives ${fv[j]} at eigenvalue ${values[j]}; the matrix is outside the function's domain.`, 'num');
   }
   const out = new Float64Array(d * d);
   for (let k = 0; k < d; k++) {

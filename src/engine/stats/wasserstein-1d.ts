@@ -91,13 +91,15 @@ function checked(v: ArrayLike<number>, w: ArrayLike<number> | null | undefined, 
     if (!Number.isFinite(v[i])) throw new RemapError(`wasserstein1d: ${name}[${i}] is ${v[i]}; give finite numbers only.`);
   }
   if (w != null) {
-    if (w.length !== v.length) throw new RemapError(`wasserstein1d: ${wname} has ${w.length} weights for ${v.length} values in ${name}; give one weight per value.`);
+    if (w.length !== v.length)
+      throw new RemapError(`wasserstein1d: ${wname} has ${w.length} weights for ${v.length} values in ${name}; give one weight per value.`);
     let total = 0;
     for (let i = 0; i < w.length; i++) {
       if (!(Number.isFinite(w[i]) && w[i] >= 0)) throw new RemapError(`wasserstein1d: ${wname}[${i}] is ${w[i]}; weights must be finite and zero or positive.`);
       total += w[i];
     }
-    if (!(total > 0) || !Number.isFinite(total)) throw new RemapError(`wasserstein1d: the weights ${wname} add up to ${total}; give at least one positive weight, with a finite total.`);
+    if (!(total > 0) || !Number.isFinite(total))
+      throw new RemapError(`wasserstein1d: the weights ${wname} add up to ${total}; give at least one positive weight, with a finite total.`);
   }
   return v;
 }

@@ -49,7 +49,9 @@ export const COARSE_STEP = 0.1;
  * Cost: O((n + K) log(n + K)).
  * @param method 'quantile' (default), or step / ordinal when no side is a quantile table.
  * @throws RemapError for a quantile table with another method, bad settings, or whatever the method refuses.
- * @example fitFromTables('quantile', { kind: 'quantiles', table: quantileTable([0, 1], [0, 1], 's') }, { kind: 'quantiles', table: normalTable }).apply(column([0.975])) // 1.96 when the table holds (0.975, 1.96)
+ * @example
+ * fitFromTables('quantile', { kind: 'quantiles', table: quantileTable([0, 1], [0, 1], 's') }, { kind: 'quantiles', table: normalTable })
+ *   .apply(column([0.975])) // 1.96 when the table holds (0.975, 1.96)
  */
 export function fitFromTables(
   method: string,
@@ -63,7 +65,9 @@ export function fitFromTables(
   if (beyond !== 'hold' && beyond !== 'extend') throw new RemapError(`${fn}: beyond is "${String(beyond)}"; choose hold or extend.`);
   if (source.kind !== 'quantiles' && target.kind !== 'quantiles') return fitFrequencies(name, source, target, settings);
   if (name !== 'quantile') {
-    throw new RemapError(`${fn}: a quantile table is a continuous curve, which only method quantile reads; choose method quantile, or give the data as a frequency table for method ${name}.`);
+    throw new RemapError(
+      `${fn}: a quantile table is a continuous curve, which only method quantile reads; choose method quantile, or give the data as a frequency table for method ${name}.`,
+    );
   }
   const resolved = resolveSettings('quantile', settingSpecs(getMethod('quantile')), settings);
   const s = sideGrid(source, 'source', fn);
@@ -75,14 +79,27 @@ export function fitFromTables(
     if (t.table) t.grid = extend(t.grid, lo, hi);
   }
   const knots = buildKnots(s.grid, t.grid, true);
-  if (knots.xs.length < 2) throw new RemapError(`${fn}: the source and target cover no common range of probabilities; check that both tables' probabilities overlap.`, 'num');
+  if (knots.xs.length < 2)
+    throw new RemapError(`${fn}: the source and target cover no common range of probabilities; check that both tables' probabilities overlap.`, 'num');
   const sv = s.grid.v;
   const tv = t.grid.v;
   const column = quantileColumnFromParams(
-    { xs: Array.from(knots.xs), ys: Array.from(knots.ys), source: [Math.min(sv[0], knots.xs[0]), Math.max(sv[sv.length - 1], knots.xs[knots.xs.length - 1])], target: [Math.min(tv[0], knots.ys[0]), Math.max(tv[tv.length - 1], knots.ys[knots.ys.length - 1])] },
+    {
+      xs: Array.from(knots.xs),
+      ys: Array.from(knots.ys),
+      source: [Math.min(sv[0], knots.xs[0]), Math.max(sv[sv.length - 1], knots.xs[knots.xs.length - 1])],
+      target: [Math.min(tv[0], knots.ys[0]), Math.max(tv[tv.length - 1], knots.ys[knots.ys.length - 1])],
+    },
     fn,
   );
-  const header: MapHeader = { method: 'quantile', d: 1, settings: resolved, columns: null, n: { source: s.rows, target: t.rows }, dropped: { source: 0, target: 0 } };
+  const header: MapHeader = {
+    method: 'quantile',
+    d: 1,
+    settings: resolved,
+    columns: null,
+    n: { source: s.rows, target: t.rows },
+    dropped: { source: 0, target: 0 },
+  };
   const warnings: Warning[] = [];
   for (const side of [s, t]) {
     if (!side.table && side.rows < 30) {
@@ -109,7 +126,8 @@ function fitFrequencies(method: string, source: Distribution1d, target: Distribu
   const s = asSample(source);
   const t = asSample(target);
   const map = fitMapSync(method, s, t, settings);
-  if (!(map instanceof OneColumnMap) || map.d !== 1) throw new RemapError(`fit from tables (${method}): tables are one column; choose quantile, step or ordinal.`);
+  if (!(map instanceof OneColumnMap) || map.d !== 1)
+    throw new RemapError(`fit from tables (${method}): tables are one column; choose quantile, step or ordinal.`);
   const rows = (d: Distribution1d, fallback: number) => (d.kind === 'frequencies' && d.table.counts ? frequencyTotal(d.table) : fallback);
   const header: MapHeader = { ...map.header, n: { source: rows(source, s.n), target: rows(target, t.n) } };
   const shares = (source.kind === 'frequencies' && !source.table.counts) || (target.kind === 'frequencies' && !target.table.counts);
@@ -118,7 +136,8 @@ function fitFrequencies(method: string, source: Distribution1d, target: Distribu
   if (shares) {
     warnings.push({
       code: 'small-sample',
-      message: 'A frequency table gives shares rather than counts, so the number of people or records behind it is unknown and the small-sample check could not be made.',
+      message:
+        'A frequency table gives shares rather than counts, so the number of people or records behind it is unknown and the small-sample check could not be made.',
       action: 'Give counts if you have them; a map from a few hundred records or fewer is rough.',
     });
   }
@@ -145,7 +164,8 @@ function sideGrid(d: Distribution1d, which: 'source' | 'target', fn: string): Si
   const s = d.kind === 'sample' ? d.sample : frequencySample(d.table);
   if (s.d !== 1) throw new RemapError(`${fn}: the ${which} has ${s.d} columns; tables are one column, so give one column.`);
   const cdf = weightedCdf(s.data.subarray(0, s.n), s.weights);
-  if (cdf.values.length < 2) throw new RemapError(`${fn}: every ${which} row holds the same value (${cdf.values[0]}); give at least two different values.`, 'num');
+  if (cdf.values.length < 2)
+    throw new RemapError(`${fn}: every ${which} row holds the same value (${cdf.values[0]}); give at least two different values.`, 'num');
   const rows = d.kind === 'frequencies' && d.table.counts ? frequencyTotal(d.table) : s.n;
   return { grid: hazenGrid(cdf), table: null, rows, which };
 }
@@ -194,7 +214,8 @@ function tableWarnings(side: SideGrid, other: SideGrid, knots: { xs: Float64Arra
     const ends = side.which === 'target' ? knots.ys : knots.xs;
     const verb = side.which === 'target' ? 'source' : 'target';
     if (below > 0) parts.push(`${verb} values below ${fmt(xs[0])} (about ${pct(t.p[0])} of the ${verb}) lie below its first probability ${fmt(t.p[0])}`);
-    if (above > 0) parts.push(`${verb} values above ${fmt(xs[xs.length - 1])} (about ${pct(1 - t.p[K - 1])}) lie above its last probability ${fmt(t.p[K - 1])}`);
+    if (above > 0)
+      parts.push(`${verb} values above ${fmt(xs[xs.length - 1])} (about ${pct(1 - t.p[K - 1])}) lie above its last probability ${fmt(t.p[K - 1])}`);
     out.push({
       code: 'extrapolation',
       message: `The ${side.which} quantile table does not reach the ends of the distribution: ${parts.join('; ')}. ${
@@ -266,4 +287,3 @@ function fmt(x: number): string {
 function pct(x: number): string {
   return `${Number((100 * x).toPrecision(3))} %`;
 }
-

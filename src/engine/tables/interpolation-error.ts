@@ -25,7 +25,8 @@ export interface InterpolationError {
  * is 0 and says nothing. It is an estimate, not a guarantee: a curve that bends
  * sharply between two points shows no trace in the table.
  * Cost: O(K).
- * @example tableInterpolationError(quantileTable([0, 0.5, 1], [0, 1, 4], 't')).largest // 0.5 ((0.5)^2/8 * 2 * 8: the end-step rule doubles the only curvature 8)
+ * @example tableInterpolationError(quantileTable([0, 0.5, 1], [0, 1, 4], 't')).largest
+ * // 0.5 ((0.5)^2/8 * 2 * 8: the end-step rule doubles the only curvature 8)
  */
 export function tableInterpolationError(t: QuantileTable): InterpolationError {
   const { p, v } = t;

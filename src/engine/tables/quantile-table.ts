@@ -34,7 +34,10 @@ export function quantileTable(p: ArrayLike<number>, v: ArrayLike<number>, where:
     if (P[k] < 0 || P[k] > 1) {
       throw new RemapError(`${where}: row ${k + 1} has probability ${P[k]}, outside 0..1; give probabilities as shares (0.25, not 25).`);
     }
-    if (k > 0 && !(P[k] > P[k - 1])) throw new RemapError(`${where}: the probability in row ${k + 1} (${P[k]}) is not larger than the one before (${P[k - 1]}); sort the rows and remove repeated probabilities.`);
+    if (k > 0 && !(P[k] > P[k - 1]))
+      throw new RemapError(
+        `${where}: the probability in row ${k + 1} (${P[k]}) is not larger than the one before (${P[k - 1]}); sort the rows and remove repeated probabilities.`,
+      );
     if (k > 0 && !(V[k] > V[k - 1])) {
       throw new RemapError(
         `${where}: the value in row ${k + 1} (${V[k]}) is not larger than the one before (${V[k - 1]}); a quantile table needs rising values. For a value many rows share (an atom), give the data as a frequency table, or keep one of the repeated rows.`,

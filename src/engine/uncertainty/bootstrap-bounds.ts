@@ -45,13 +45,15 @@ export function bootstrapBounds(method: string, source: Sample, target: Sample, 
   const fn = `bounds (${method}, bootstrap)`;
   const R = options.replicates ?? 1000;
   const seed = options.seed ?? 0;
-  if (!Number.isInteger(R) || R < 20 || R > 100_000) throw new RemapError(`${fn}: replicates is ${R}; give a whole number from 20 to 100000 (1000 is usual for 95 % bounds).`);
+  if (!Number.isInteger(R) || R < 20 || R > 100_000)
+    throw new RemapError(`${fn}: replicates is ${R}; give a whole number from 20 to 100000 (1000 is usual for 95 % bounds).`);
   if (!Number.isInteger(seed) || seed < 0 || seed > 4294967295) throw new RemapError(`${fn}: the seed is ${seed}; give a whole number from 0 to 4294967295.`);
   const level = options.level ?? 0.95;
   const prep = prepareBounds(method, source, target, values, options.settings ?? {}, level, R, fn);
   const { fitter, estimate, m } = prep;
   const { reps, failed } = bootstrapReplicates(fitter, source, target, R, m, seed, 'fast');
-  if (failed > R / 2) throw new RemapError(`${fn}: ${failed} of ${R} replicates could not be fitted (too few distinct values in a resample); give larger samples.`);
+  if (failed > R / 2)
+    throw new RemapError(`${fn}: ${failed} of ${R} replicates could not be fitted (too few distinct values in a resample); give larger samples.`);
   const lower = new Float64Array(m);
   const upper = new Float64Array(m);
   const alpha = 1 - level;
@@ -77,8 +79,9 @@ export function bootstrapBounds(method: string, source: Sample, target: Sample, 
   if (source.weights || target.weights) {
     warnings.push({
       code: 'small-sample',
-      message: 'Weighted rows were resampled as if drawn independently (with probability proportional to weight, at the Kish effective size); clusters and strata of a survey design are not reflected.',
-      action: "If the survey publishes replicate weights, use them (replicate bounds) for bounds that follow its design.",
+      message:
+        'Weighted rows were resampled as if drawn independently (with probability proportional to weight, at the Kish effective size); clusters and strata of a survey design are not reflected.',
+      action: 'If the survey publishes replicate weights, use them (replicate bounds) for bounds that follow its design.',
     });
   }
   return {

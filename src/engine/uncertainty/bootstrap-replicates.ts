@@ -26,7 +26,15 @@ export interface BootstrapReplicates {
  * Cost: O(R (n + m)) draws plus R refits (see ReplicateFitter).
  * @throws RemapError only from the fitter's own errors other than a failed refit (those are counted as failed).
  */
-export function bootstrapReplicates(fitter: ReplicateFitter, source: Sample, target: Sample, R: number, m: number, seed: number, way: 'fast' | 'refit'): BootstrapReplicates {
+export function bootstrapReplicates(
+  fitter: ReplicateFitter,
+  source: Sample,
+  target: Sample,
+  R: number,
+  m: number,
+  seed: number,
+  way: 'fast' | 'refit',
+): BootstrapReplicates {
   const stream = new ResampleStream(seed);
   const oneD = fitter.method !== 'linear';
   const sides = (['source', 'target'] as const).map((side) => {

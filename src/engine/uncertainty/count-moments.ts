@@ -56,7 +56,8 @@ export function countMoments(p: Points, w: Float64Array, fn: string): CountMomen
     if (!(Math.abs(mean[k]) < Infinity)) throw new RemapError(`${fn}: column ${k + 1} holds values too large to average (mean ${mean[k]}); rescale it.`);
     for (let l = k; l < d; l++) {
       const v = cov[k * d + l] / total;
-      if (!(Math.abs(v) < Infinity)) throw new RemapError(`${fn}: columns ${k + 1} and ${l + 1} hold values too large to square (covariance ${v}); rescale them.`);
+      if (!(Math.abs(v) < Infinity))
+        throw new RemapError(`${fn}: columns ${k + 1} and ${l + 1} hold values too large to square (covariance ${v}); rescale them.`);
       cov[k * d + l] = v;
       cov[l * d + k] = v;
     }

@@ -70,8 +70,15 @@ export class LinearRefit {
     if (d === 1) {
       // One column: covarianceCondition refuses exactly a variance that is not positive, or a constant column without a
       // ridge, and A = (c1^-1/2 (c1^1/2 c2 c1^1/2)^1/2 c1^-1/2) = sqrt(c2 / c1), to rounding (Knott & Smith 1984).
-      for (const [c, varies, which] of [[cov1[0], varies1[0], 'source'], [cov2[0], varies2[0], 'target']] as const) {
-        if (!(c > 0) || (!varies && !(ridge > 0))) throw new RemapError(`${fn}: every ${which} row with positive weight holds the same value, so its variance is 0; a linear map needs data that varies.`, 'num');
+      for (const [c, varies, which] of [
+        [cov1[0], varies1[0], 'source'],
+        [cov2[0], varies2[0], 'target'],
+      ] as const) {
+        if (!(c > 0) || (!varies && !(ridge > 0)))
+          throw new RemapError(
+            `${fn}: every ${which} row with positive weight holds the same value, so its variance is 0; a linear map needs data that varies.`,
+            'num',
+          );
       }
       const a = Math.sqrt(cov2[0] / cov1[0]);
       matrix = Float64Array.of((scales ? (scales[0] * a) / scales[0] : a) + 0);

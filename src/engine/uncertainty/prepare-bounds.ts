@@ -38,7 +38,9 @@ export function prepareBounds(
   }
   const m = values.n * values.d;
   if (m * replicates > MAX_BOUND_CELLS) {
-    throw new RemapError(`${fn}: ${values.n} values x ${replicates} replicates is more than ${MAX_BOUND_CELLS} numbers to hold; bound fewer values (a grid such as the percentiles, reading between them) or use fewer replicates.`);
+    throw new RemapError(
+      `${fn}: ${values.n} values x ${replicates} replicates is more than ${MAX_BOUND_CELLS} numbers to hold; bound fewer values (a grid such as the percentiles, reading between them) or use fewer replicates.`,
+    );
   }
   const map = fitMapSync(spec.name, source, target, settings);
   const estimate = Float64Array.from(map.apply(values).data);

@@ -250,5 +250,8 @@ function lastAtOrBelowFrom(w: CumulativeWeights, from: number, s: number): numbe
 }
 
 function single(side: string, value: number): RemapError {
-  return new RemapError(`bounds: every ${side} row with positive weight holds the same value (${value}); a continuous map needs at least two different values on each side. Check the range, or use method linear.`, 'num');
+  return new RemapError(
+    `bounds: every ${side} row with positive weight holds the same value (${value}); a continuous map needs at least two different values on each side. Check the range, or use method linear.`,
+    'num',
+  );
 }

@@ -46,12 +46,15 @@ export interface ReplicateOptions {
 export function replicateBounds(method: string, source: Sample, target: Sample, values: Points, options: ReplicateOptions): MappedBounds {
   const fn = `bounds (${method}, replicate weights)`;
   const level = options.level ?? 0.95;
-  if (!options.source && !options.target) throw new RemapError(`${fn}: no replicate weights were given; give them for the source, the target or both (or use bootstrap bounds).`);
+  if (!options.source && !options.target)
+    throw new RemapError(`${fn}: no replicate weights were given; give them for the source, the target or both (or use bootstrap bounds).`);
   const rs = options.source ? checkWeights(options.source, source.n, 'source', fn) : 0;
   const rt = options.target ? checkWeights(options.target, target.n, 'target', fn) : 0;
   if (options.shared) {
     if (!options.source || !options.target || rs !== rt || options.source.kind !== options.target.kind) {
-      throw new RemapError(`${fn}: shared replicates need the same number and kind of replicate weights on both sides (source ${rs} ${options.source?.kind ?? 'none'}, target ${rt} ${options.target?.kind ?? 'none'}); give matching sets, or treat the samples as independent.`);
+      throw new RemapError(
+        `${fn}: shared replicates need the same number and kind of replicate weights on both sides (source ${rs} ${options.source?.kind ?? 'none'}, target ${rt} ${options.target?.kind ?? 'none'}); give matching sets, or treat the samples as independent.`,
+      );
     }
   }
   const prep = prepareBounds(method, source, target, values, options.settings ?? {}, level, Math.max(rs, rt), fn);
@@ -89,8 +92,18 @@ export function replicateBounds(method: string, source: Sample, target: Sample, 
     const c = replicateMultiplier(options.source!, rs, `${fn}: source replicate weights`);
     run(rs, (r) => ({ s: fitter.perUnit('source', column(options.source!, r)), t: fitter.perUnit('target', column(options.target!, r)) }), c);
   } else {
-    if (options.source) run(rs, (r) => ({ s: fitter.perUnit('source', column(options.source!, r)), t: fullT }), replicateMultiplier(options.source, rs, `${fn}: source replicate weights`));
-    if (options.target) run(rt, (r) => ({ s: fullS, t: fitter.perUnit('target', column(options.target!, r)) }), replicateMultiplier(options.target, rt, `${fn}: target replicate weights`));
+    if (options.source)
+      run(
+        rs,
+        (r) => ({ s: fitter.perUnit('source', column(options.source!, r)), t: fullT }),
+        replicateMultiplier(options.source, rs, `${fn}: source replicate weights`),
+      );
+    if (options.target)
+      run(
+        rt,
+        (r) => ({ s: fullS, t: fitter.perUnit('target', column(options.target!, r)) }),
+        replicateMultiplier(options.target, rt, `${fn}: target replicate weights`),
+      );
   }
   const z = normalQuantile(0.5 + level / 2);
   const se = new Float64Array(m);
@@ -118,7 +131,9 @@ export function replicateBounds(method: string, source: Sample, target: Sample, 
       action: 'Check the replicate weight columns (a replicate that gives almost every row zero weight cannot be fitted).',
     });
   }
-  const kinds = [options.source, options.target].filter((x): x is ReplicateWeights => !!x).map((x) => x.kind + (x.kind === 'brr' ? ` (Fay factor ${x.fay ?? 0})` : ''));
+  const kinds = [options.source, options.target]
+    .filter((x): x is ReplicateWeights => !!x)
+    .map((x) => x.kind + (x.kind === 'brr' ? ` (Fay factor ${x.fay ?? 0})` : ''));
   return {
     n: values.n,
     d: values.d,
@@ -137,13 +152,15 @@ export function replicateBounds(method: string, source: Sample, target: Sample, 
 
 function checkWeights(rw: ReplicateWeights, n: number, side: string, fn: string): number {
   const { n: rows, d: R, data } = rw.weights;
-  if (rows !== n) throw new RemapError(`${fn}: the ${side} replicate weights have ${rows} rows but the ${side} has ${n}; give one row of replicate weights per ${side} row.`);
+  if (rows !== n)
+    throw new RemapError(`${fn}: the ${side} replicate weights have ${rows} rows but the ${side} has ${n}; give one row of replicate weights per ${side} row.`);
   if (R < 2) throw new RemapError(`${fn}: ${R} ${side} replicate weight column given; give at least 2.`);
   for (let r = 0; r < R; r++) {
     let total = 0;
     for (let i = 0; i < n; i++) {
       const w = data[i * R + r];
-      if (!Number.isFinite(w) || w < 0) throw new RemapError(`${fn}: ${side} replicate weight ${r + 1}, row ${i + 1} is ${w}; replicate weights must be finite and zero or more.`);
+      if (!Number.isFinite(w) || w < 0)
+        throw new RemapError(`${fn}: ${side} replicate weight ${r + 1}, row ${i + 1} is ${w}; replicate weights must be finite and zero or more.`);
       total += w;
     }
     if (!(total > 0)) throw new RemapError(`${fn}: ${side} replicate weight column ${r + 1} is all zero; give each replicate some positive weight.`);

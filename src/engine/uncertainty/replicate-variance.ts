@@ -39,16 +39,20 @@ export function replicateMultiplier(scheme: ReplicateScheme, R: number, where = 
       return (R - 1) / R;
     case 'brr': {
       const k = scheme.fay ?? 0;
-      if (!(k >= 0 && k < 1)) throw new RemapError(`${where}: Fay's factor is ${k}; give a number from 0 (plain BRR) up to but not including 1 (0.5 is common).`);
+      if (!(k >= 0 && k < 1))
+        throw new RemapError(`${where}: Fay's factor is ${k}; give a number from 0 (plain BRR) up to but not including 1 (0.5 is common).`);
       return 1 / (R * (1 - k) * (1 - k));
     }
     case 'custom': {
       const c = scheme.multiplier;
-      if (c === undefined || !(c > 0) || !Number.isFinite(c)) throw new RemapError(`${where}: the custom kind needs the multiplier from the survey's documentation (a positive number), not ${String(c)}.`);
+      if (c === undefined || !(c > 0) || !Number.isFinite(c))
+        throw new RemapError(`${where}: the custom kind needs the multiplier from the survey's documentation (a positive number), not ${String(c)}.`);
       return c;
     }
     default:
-      throw new RemapError(`${where}: the kind "${String((scheme as { kind: unknown }).kind)}" is not one Remap knows; choose bootstrap, jackknife, brr or custom.`);
+      throw new RemapError(
+        `${where}: the kind "${String((scheme as { kind: unknown }).kind)}" is not one Remap knows; choose bootstrap, jackknife, brr or custom.`,
+      );
   }
 }
 

@@ -40,7 +40,7 @@ export class ResampleStream {
     let c = st[2];
     let d = st[3];
     const threshold = (TWO32 - cells) % cells;
-    for (let i = 0; i < draws; ) {
+    for (let i = 0; i < draws;) {
       const t = (((a + b) | 0) + d) | 0;
       d = (d + 1) | 0;
       a = b ^ (b >>> 9);
@@ -68,7 +68,7 @@ export class ResampleStream {
     let c = st[2];
     let d = st[3];
     const shift = 32 - Math.ceil(Math.log2(cells));
-    for (let i = 0; i < draws; ) {
+    for (let i = 0; i < draws;) {
       const t = (((a + b) | 0) + d) | 0;
       d = (d + 1) | 0;
       a = b ^ (b >>> 9);
@@ -102,7 +102,7 @@ export class ResampleStream {
     const threshold = (TWO32 - size) % size;
     const shift = 32 - Math.ceil(Math.log2(size));
     let k = -1;
-    for (let i = 0; i < draws; ) {
+    for (let i = 0; i < draws;) {
       const t = (((a + b) | 0) + d) | 0;
       d = (d + 1) | 0;
       a = b ^ (b >>> 9);

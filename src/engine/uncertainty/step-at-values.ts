@@ -60,9 +60,15 @@ export class StepAtValues {
     const ls = S.atOrBefore(cs.length - 1);
     const ft = T.after(-1);
     const lt = T.atOrBefore(ct.length - 1);
-    for (const [a, b, v, side] of [[fs, ls, sx, 'source'], [ft, lt, ty, 'target']] as const) {
+    for (const [a, b, v, side] of [
+      [fs, ls, sx, 'source'],
+      [ft, lt, ty, 'target'],
+    ] as const) {
       if (a === b) {
-        throw new RemapError(`bounds: every ${side} row with positive weight holds the same value (${v[a]}); the step map needs at least two different values on each side. Check the range.`, 'num');
+        throw new RemapError(
+          `bounds: every ${side} row with positive weight holds the same value (${v[a]}); the step map needs at least two different values on each side. Check the range.`,
+          'num',
+        );
       }
     }
     /** The table entry of weighted source value k: stepTable's walk, as a binary search. */

@@ -2,12 +2,19 @@ import { barycentricMap, softmaxLogits } from '../../../src/engine/entropic/bary
 import { points } from '../../../src/engine/points';
 
 describe('barycentric-map', () => {
-  const y = points([[-1, 0], [1, 0], [0, 2]]);
+  const y = points([
+    [-1, 0],
+    [1, 0],
+    [0, 2],
+  ]);
   const logMass = Float64Array.of(Math.log(0.2), Math.log(0.3), Math.log(0.5));
   const g = Float64Array.of(0.1, -0.3, 0.2);
 
   test('barycentricMap(x) = sum_j y_j softmax_j(log b_j + (g_j - |x - y_j|^2 / 2) / eps)', () => {
-    const x = points([[0.3, 0.4], [-2, 5]]);
+    const x = points([
+      [0.3, 0.4],
+      [-2, 5],
+    ]);
     const eps = 0.7;
     const out = barycentricMap(x, y, logMass, g, eps);
     for (let i = 0; i < 2; i++) {

@@ -3,8 +3,21 @@ import { points } from '../../../src/engine/points';
 import { squaredDistancesRow } from '../../../src/engine/stats/sq-distances';
 
 describe('cost-rows', () => {
-  const x = Object.freeze(points([[0, 0, 1], [1, -2, 0.5], [3, 1, -1]]));
-  const y = Object.freeze(points([[1, 1, 1], [2, 0, -1], [-1, 4, 0], [0.5, 0.25, 2]]));
+  const x = Object.freeze(
+    points([
+      [0, 0, 1],
+      [1, -2, 0.5],
+      [3, 1, -1],
+    ]),
+  );
+  const y = Object.freeze(
+    points([
+      [1, 1, 1],
+      [2, 0, -1],
+      [-1, 4, 0],
+      [0.5, 0.25, 2],
+    ]),
+  );
   const g = Float64Array.of(0.3, -0.1, 0, 0.7);
   const inv = 1 / 0.45;
 
@@ -14,7 +27,10 @@ describe('cost-rows', () => {
     const max = new Float64Array(2);
     logitRows2(x.data, 0, 2, y.data, 3, 0, 4, g, inv, out, 0, 4, max);
     const c = new Float64Array(4);
-    for (const [r, i] of [[0, 0], [1, 2]]) {
+    for (const [r, i] of [
+      [0, 0],
+      [1, 2],
+    ]) {
       squaredDistancesRow(x, i, y, c, 0, 0.5);
       // Source: squaredDistancesRow (src/engine/stats/sq-distances.ts), the same arithmetic in the same order.
       const want = Array.from(c, (cj, j) => (g[j] - cj) * inv);

@@ -3,7 +3,10 @@ import { points } from '../../../src/engine/points';
 
 describe('default-eps', () => {
   test('totalVariance is the mass-weighted sum of column variances', () => {
-    const p = points([[0, 0], [2, 4]]);
+    const p = points([
+      [0, 0],
+      [2, 4],
+    ]);
     // Source: common practice, variances 1 and 4 with masses 1/2.
     expect(totalVariance(p, Float64Array.of(Math.log(0.5), Math.log(0.5)))).toBeCloseTo(5, 14);
   });
@@ -23,8 +26,14 @@ describe('default-eps', () => {
     // Source: the documented rule; variances 1 and 4, n = 2, d = 1.
     expect(defaultEps(x, l, y, l)).toBeCloseTo(0.0625 * 2.5 * Math.pow(2, -2 / 5), 14);
     // Source: the documented rule, d = 2: total variances 1 + 4 and 4 + 0, so the mean column variance is 9 / 4.
-    const x2 = points([[0, 0], [2, 4]]);
-    const y2 = points([[0, 1], [4, 1]]);
+    const x2 = points([
+      [0, 0],
+      [2, 4],
+    ]);
+    const y2 = points([
+      [0, 1],
+      [4, 1],
+    ]);
     expect(defaultEps(x2, l, y2, l)).toBeCloseTo(0.0625 * (9 / 4) * Math.pow(2, -2 / 6), 14);
   });
 

@@ -31,7 +31,13 @@ describe('EntropicMap', () => {
   });
 
   test('apply maps into the convex hull of the target; outside counts rows beyond the fitted source range', () => {
-    const r = map.apply(points([[0.5, 0.5], [2, 0.5], [-1, -1]]));
+    const r = map.apply(
+      points([
+        [0.5, 0.5],
+        [2, 0.5],
+        [-1, -1],
+      ]),
+    );
     expect(r.outside).toBe(2);
     for (let i = 0; i < r.data.length; i++) {
       expect(r.data[i]).toBeGreaterThanOrEqual(10);
@@ -53,7 +59,14 @@ describe('EntropicMap', () => {
 
   test('invert refuses a value outside the convex hull of the target rows (no preimage), naming the row', () => {
     // Source: every value of the entropic map is an average of target rows (Pooladian & Niles-Weed 2021, eq. (3.2)).
-    expect(() => map.invert(points([[11, 11], [20, 11]]))).toThrow(/row 2 of the values \(20, 11\)/);
+    expect(() =>
+      map.invert(
+        points([
+          [11, 11],
+          [20, 11],
+        ]),
+      ),
+    ).toThrow(/row 2 of the values \(20, 11\)/);
   });
 
   test('apply in standardised units equals the raw-units fit of the data divided by the pooled spreads, mapped back', () => {

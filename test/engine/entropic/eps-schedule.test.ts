@@ -21,8 +21,15 @@ describe('eps-schedule', () => {
   });
 
   test('meanCost is E|X - Y|^2 / 2 for independent draws: (Var X + Var Y + |mean X - mean Y|^2) / 2, with the masses', () => {
-    const x = points([[0, 0], [2, 0]]);
-    const y = points([[5, 1], [5, 3], [5, 5]]);
+    const x = points([
+      [0, 0],
+      [2, 0],
+    ]);
+    const y = points([
+      [5, 1],
+      [5, 3],
+      [5, 5],
+    ]);
     const logA = Float64Array.of(Math.log(0.25), Math.log(0.75));
     const logB = new Float64Array(3).fill(-Math.log(3));
     let want = 0;

@@ -33,14 +33,36 @@ describe('kernel-products', () => {
 
   test('fusedScalingPass with omega > 1 over-relaxes: u_out = u^(1-omega) (1/s)^omega', () => {
     const uOut = new Float64Array(2);
-    fusedScalingPass(K, 2, 3, Float64Array.of(0.5, 0.5), Float64Array.of(0.2, 0.3, 0.5), Float64Array.of(2, 1), 1.5, uOut, new Float64Array(3), new Float64Array(2));
+    fusedScalingPass(
+      K,
+      2,
+      3,
+      Float64Array.of(0.5, 0.5),
+      Float64Array.of(0.2, 0.3, 0.5),
+      Float64Array.of(2, 1),
+      1.5,
+      uOut,
+      new Float64Array(3),
+      new Float64Array(2),
+    );
     // Source: Thibault et al. 2017, arXiv 1711.01851, eq. (8).
     expect(uOut[0]).toBeCloseTo(Math.pow(2, -0.5) * Math.pow(1 / 2.3, 1.5), 14);
   });
 
   test('fusedScalingPass reports a row whose product is 0 instead of dividing by it', () => {
     const Z = Float64Array.of(0, 0, 1, 1);
-    const ok = fusedScalingPass(Z, 2, 2, Float64Array.of(0.5, 0.5), Float64Array.of(0.5, 0.5), Float64Array.of(1, 1), 1, new Float64Array(2), new Float64Array(2), new Float64Array(2));
+    const ok = fusedScalingPass(
+      Z,
+      2,
+      2,
+      Float64Array.of(0.5, 0.5),
+      Float64Array.of(0.5, 0.5),
+      Float64Array.of(1, 1),
+      1,
+      new Float64Array(2),
+      new Float64Array(2),
+      new Float64Array(2),
+    );
     expect(ok).toBe(false);
   });
 

@@ -1,10 +1,16 @@
 import { buildKernelPlain, buildKernelRecentred, maxSquarings, repairColumn, squareKernel } from '../../../src/engine/entropic/kernel';
 import { points } from '../../../src/engine/points';
 
-const x = points([[0, 0], [1, 0], [0, 2]]);
-const y = points([[1, 1], [2, 0]]);
-const cost = (i: number, j: number): number =>
-  ((x.data[2 * i] - y.data[2 * j]) ** 2 + (x.data[2 * i + 1] - y.data[2 * j + 1]) ** 2) / 2;
+const x = points([
+  [0, 0],
+  [1, 0],
+  [0, 2],
+]);
+const y = points([
+  [1, 1],
+  [2, 0],
+]);
+const cost = (i: number, j: number): number => ((x.data[2 * i] - y.data[2 * j]) ** 2 + (x.data[2 * i + 1] - y.data[2 * j + 1]) ** 2) / 2;
 
 describe('kernel', () => {
   test('buildKernelPlain writes exp((f_i + g_j - C_ij) / eps) with C = |x - y|^2 / 2', () => {

@@ -12,7 +12,10 @@ describe('log-weights', () => {
   });
 
   test('supportOf gives equal masses 1/n without weights and copies the data', () => {
-    const s = sample([[1, 2], [3, 4]]);
+    const s = sample([
+      [1, 2],
+      [3, 4],
+    ]);
     const r = supportOf(s);
     // Source: common practice, log(1/2).
     expect(Array.from(r.logMass)).toEqual([-Math.log(2), -Math.log(2)]);

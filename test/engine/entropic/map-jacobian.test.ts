@@ -44,7 +44,14 @@ describe('map-jacobian', () => {
 
   test('minJacobianEigenvalue is the smallest eigenvalue over the given rows and is >= 0', () => {
     const x = rows(30, d, 3);
-    const all = minJacobianEigenvalue(x, Int32Array.from({ length: 30 }, (_, i) => i), y, logMass, g, eps);
+    const all = minJacobianEigenvalue(
+      x,
+      Int32Array.from({ length: 30 }, (_, i) => i),
+      y,
+      logMass,
+      g,
+      eps,
+    );
     const some = minJacobianEigenvalue(x, Int32Array.of(0, 5), y, logMass, g, eps);
     expect(all).toBeGreaterThanOrEqual(-1e-12);
     expect(all).toBeLessThanOrEqual(some);

@@ -12,8 +12,21 @@ describe('entropicMethod', () => {
   });
 
   test('fits through fitMap with text settings and restores through restoreMap', async () => {
-    const src = sample([[0, 0], [1, 0], [0, 1], [1, 1]]);
-    const tgt = sample([[5, 5], [7, 5], [5, 7], [7, 7]], [1, 2, 1, 2]);
+    const src = sample([
+      [0, 0],
+      [1, 0],
+      [0, 1],
+      [1, 1],
+    ]);
+    const tgt = sample(
+      [
+        [5, 5],
+        [7, 5],
+        [5, 7],
+        [7, 7],
+      ],
+      [1, 2, 1, 2],
+    );
     const map = await fitMap('entropic', src, tgt, { SMOOTHING: '0.5', tolerance: '1e-9' });
     expect(map.diagnostics().settings.smoothing).toBe(0.5);
     const back = restoreMap(JSON.parse(JSON.stringify(map.toJSON())));
@@ -23,8 +36,20 @@ describe('entropicMethod', () => {
 
 describe('entropic cost: its units are stated', () => {
   test('the cost says standardised units by default and raw units with units=raw', async () => {
-    const src = sample([[0, 0], [1, 100], [0, 200], [1, 300], [0.5, 150]]);
-    const tgt = sample([[5, 5], [7, 105], [5, 207], [7, 307], [6, 160]]);
+    const src = sample([
+      [0, 0],
+      [1, 100],
+      [0, 200],
+      [1, 300],
+      [0.5, 150],
+    ]);
+    const tgt = sample([
+      [5, 5],
+      [7, 105],
+      [5, 207],
+      [7, 307],
+      [6, 160],
+    ]);
     // Source: design choice (a cost in standardised units must say so beside a raw-units figure).
     expect((await fitMap('entropic', src, tgt, {})).cost().units).toBe('standardised');
     expect((await fitMap('entropic', src, tgt, { units: 'raw' })).cost().units).toBe('raw');

@@ -9,7 +9,10 @@ describe('solve-control', () => {
     c.tick(0.5);
     c.tick(0.25);
     expect(c.step).toBe(2);
-    expect(seen.map((p) => [p.step, p.of, p.loss])).toEqual([[1, 50, 0.5], [2, 50, 0.25]]);
+    expect(seen.map((p) => [p.step, p.of, p.loss])).toEqual([
+      [1, 50, 0.5],
+      [2, 50, 0.25],
+    ]);
     expect(seen[0].elapsedMs).toBeGreaterThanOrEqual(0);
   });
 

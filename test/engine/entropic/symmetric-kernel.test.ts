@@ -1,6 +1,11 @@
 import { buildKernelPlain } from '../../../src/engine/entropic/kernel';
 import {
-  buildSymmetricKernel, packedRowStart, packedSize, softMinSelf, squareSymmetricKernel, symmetricKernelTimes,
+  buildSymmetricKernel,
+  packedRowStart,
+  packedSize,
+  softMinSelf,
+  squareSymmetricKernel,
+  symmetricKernelTimes,
 } from '../../../src/engine/entropic/symmetric-kernel';
 import type { Points } from '../../../src/engine/points';
 

@@ -83,9 +83,12 @@ function draws(seed: number, n: number, f: (r: Random) => number): number[] {
 // Source: the task's acceptance bound, 1e-9 relative (design choice: relative to max(|value|, 1)).
 const TOL = 1e-9;
 
-describe('SQL export run in DuckDB on 1,000,000 rows equals the engine\'s apply', () => {
+describe("SQL export run in DuckDB on 1,000,000 rows equals the engine's apply", () => {
   test('quantile, weighted, unequal sizes, tails=linear; and its inverse', async () => {
-    const src = sample(draws(1, 3000, (r) => 2 + r.normal()), draws(2, 3000, (r) => 0.5 + r.uniform()));
+    const src = sample(
+      draws(1, 3000, (r) => 2 + r.normal()),
+      draws(2, 3000, (r) => 0.5 + r.uniform()),
+    );
     const tgt = sample(draws(3, 2000, (r) => -Math.log(1 - r.uniform()) * 10));
     const map = await fitMap('quantile', src, tgt, { tails: 'linear' }, { columns: ['a'] });
     const json = map.toJSON();
@@ -102,7 +105,10 @@ describe('SQL export run in DuckDB on 1,000,000 rows equals the engine\'s apply'
   });
 
   test.each(['clamp', 'linear'])('step, weighted, tails=%s', async (tails) => {
-    const src = sample(draws(6, 800, (r) => 4 * r.uniform()), draws(7, 800, (r) => 1 + r.int(3)));
+    const src = sample(
+      draws(6, 800, (r) => 4 * r.uniform()),
+      draws(7, 800, (r) => 1 + r.int(3)),
+    );
     const tgt = sample(draws(8, 500, (r) => Math.round(10 * r.normal()) / 10));
     const map = await fitMap('step', src, tgt, { tails });
     expect(worstRelative(map, [a], await runSql(map.toJSON(), ['a']))).toBeLessThan(TOL);
@@ -110,7 +116,10 @@ describe('SQL export run in DuckDB on 1,000,000 rows equals the engine\'s apply'
   });
 
   test.each(['clamp', 'linear'])('ordinal, weighted, tails=%s (scores with gaps)', async (tails) => {
-    const src = sample(draws(9, 600, (r) => r.int(11)), draws(10, 600, (r) => 0.2 + r.uniform()));
+    const src = sample(
+      draws(9, 600, (r) => r.int(11)),
+      draws(10, 600, (r) => 0.2 + r.uniform()),
+    );
     const tgt = sample(draws(11, 700, (r) => (r.int(6) === 2 ? 0 : 2 * r.int(5))));
     const map = await fitMap('ordinal', src, tgt, { tails });
     expect(worstRelative(map, [s], await runSql(map.toJSON(), ['s']))).toBeLessThan(TOL);
@@ -118,7 +127,10 @@ describe('SQL export run in DuckDB on 1,000,000 rows equals the engine\'s apply'
   });
 
   test('linear on two columns, weighted; apply and invert', async () => {
-    const src = sample(draws(12, 900, (r) => r.normal()).map((v, i) => [v, v * 5 + 20 * Math.sin(i)]), draws(13, 900, (r) => r.uniform()));
+    const src = sample(
+      draws(12, 900, (r) => r.normal()).map((v, i) => [v, v * 5 + 20 * Math.sin(i)]),
+      draws(13, 900, (r) => r.uniform()),
+    );
     const tgt = sample(draws(14, 700, (r) => r.normal()).map((v, i) => [3 * v - 1, 50 * Math.cos(3 * i) - v]));
     const map = await fitMap('linear', src, tgt);
     expect(worstRelative(map, [a, b], await runSql(map.toJSON(), ['a', 'b']))).toBeLessThan(TOL);
@@ -127,7 +139,23 @@ describe('SQL export run in DuckDB on 1,000,000 rows equals the engine\'s apply'
 
   /** A gradient-net map's JSON with chosen parameters (design choice), wrapped in a real map's envelope. */
   async function netJson(layers: number, tails: string): Promise<MapJSON> {
-    const base = (await fitMap('linear', sample([[0, 0], [1, 2], [3, 1], [2, 5]]), sample([[1, 1], [2, 0], [0, 3], [4, 4]]))).toJSON();
+    const base = (
+      await fitMap(
+        'linear',
+        sample([
+          [0, 0],
+          [1, 2],
+          [3, 1],
+          [2, 5],
+        ]),
+        sample([
+          [1, 1],
+          [2, 0],
+          [0, 3],
+          [4, 4],
+        ]),
+      )
+    ).toJSON();
     const hidden = 5;
     const r = new Random(20 + layers);
     const w = Array.from({ length: hidden * 2 }, () => 1.5 * r.normal());
@@ -166,19 +194,55 @@ describe('SQL export run in DuckDB on 1,000,000 rows equals the engine\'s apply'
 
 describe('what SQL export refuses', () => {
   test('entropic and pairs maps: an error saying what to do instead', async () => {
-    const pairs = await fitMap('pairs', sample([[0, 1], [1, 0], [2, 2]]), sample([[5, 1], [6, 0], [7, 3]]));
+    const pairs = await fitMap(
+      'pairs',
+      sample([
+        [0, 1],
+        [1, 0],
+        [2, 2],
+      ]),
+      sample([
+        [5, 1],
+        [6, 0],
+        [7, 3],
+      ]),
+    );
     expect(() => mapToSql(pairs.toJSON(), { table: 't', columns: ['a', 'b'] })).toThrow(/cannot be written as SQL.*gradient-net/);
   });
 
-  test('a column list of the wrong length names the map\'s columns', async () => {
+  test("a column list of the wrong length names the map's columns", async () => {
     const map = await fitMap('quantile', sample([1, 2, 3]), sample([4, 5, 7]), {}, { columns: ['income'] });
     expect(() => mapToSql(map.toJSON(), { table: 't', columns: ['a', 'b'] })).toThrow(/map takes 1.*income/);
   });
 
   test('the inverse of a gradient-net map', async () => {
     const json = await (async () => {
-      const base = (await fitMap('linear', sample([[0, 0], [1, 2], [3, 1], [2, 5]]), sample([[1, 1], [2, 0], [0, 3], [4, 4]]))).toJSON();
-      return { ...base, method: 'gradient-net' as const, params: { network: { hidden: 1, layers: 1, w: [1, 1], b: [0], c: [1], v: [1, 0, 0, 1], alpha: 0.1, beta: [0, 0] }, source: { mean: [0, 0], scale: 1, lo: [0, 0], hi: [1, 1] }, target: { mean: [0, 0], scale: 1, lo: [0, 0], hi: [1, 1] } } };
+      const base = (
+        await fitMap(
+          'linear',
+          sample([
+            [0, 0],
+            [1, 2],
+            [3, 1],
+            [2, 5],
+          ]),
+          sample([
+            [1, 1],
+            [2, 0],
+            [0, 3],
+            [4, 4],
+          ]),
+        )
+      ).toJSON();
+      return {
+        ...base,
+        method: 'gradient-net' as const,
+        params: {
+          network: { hidden: 1, layers: 1, w: [1, 1], b: [0], c: [1], v: [1, 0, 0, 1], alpha: 0.1, beta: [0, 0] },
+          source: { mean: [0, 0], scale: 1, lo: [0, 0], hi: [1, 1] },
+          target: { mean: [0, 0], scale: 1, lo: [0, 0], hi: [1, 1] },
+        },
+      };
     })();
     expect(() => mapToSql(json, { table: 't', columns: ['a', 'b'], direction: 'invert' })).toThrow(/no closed form/);
   });

@@ -3,7 +3,7 @@ import { sigmoidEnergy, sigmoidEnergySlope } from '../../../src/engine/gradient-
 import { randomParams } from './helpers';
 
 describe('icgnHidden', () => {
-  test('act_j = c_j [h(w_j.x + b_j) - h(b_j)] and gain_j = c_j h\'(w_j.x + b_j) > 0', () => {
+  test("act_j = c_j [h(w_j.x + b_j) - h(b_j)] and gain_j = c_j h'(w_j.x + b_j) > 0", () => {
     const p = randomParams(2, 4, 1, 1);
     const x = Float64Array.of(0.3, -1.2);
     const act = new Float64Array(4);

@@ -26,8 +26,24 @@ function gaussian(n: number, mean: number[], l: number[][], seed: number): Sampl
   return Object.freeze({ n, d: 2, data, weights: null });
 }
 
-const SRC = gaussian(200, [0, 0], [[1, 0], [0.3, 0.8]], 1);
-const TGT = gaussian(200, [2, -1], [[1.5, 0], [-0.4, 0.6]], 2);
+const SRC = gaussian(
+  200,
+  [0, 0],
+  [
+    [1, 0],
+    [0.3, 0.8],
+  ],
+  1,
+);
+const TGT = gaussian(
+  200,
+  [2, -1],
+  [
+    [1.5, 0],
+    [-0.4, 0.6],
+  ],
+  2,
+);
 const SRC_COPY = Float64Array.from(SRC.data);
 const FAST = { steps: 20, batch: 64, hidden: 16, time_budget: 30 };
 
@@ -94,13 +110,15 @@ describe('gradientNetMethod', () => {
     const seen: Progress[] = [];
     const signal = { aborted: false };
     const before = tf.memory().numTensors;
-    const run = Promise.resolve(gradientNetMethod.fit(SRC, TGT, settingsOf({ ...FAST, steps: 100000 }), {
-      signal,
-      onProgress: (p) => {
-        seen.push(p);
-        if (p.step >= 5) signal.aborted = true;
-      },
-    }));
+    const run = Promise.resolve(
+      gradientNetMethod.fit(SRC, TGT, settingsOf({ ...FAST, steps: 100000 }), {
+        signal,
+        onProgress: (p) => {
+          seen.push(p);
+          if (p.step >= 5) signal.aborted = true;
+        },
+      }),
+    );
     await expect(run).rejects.toMatchObject({ kind: 'cancelled' });
     await run.catch((e) => expect(isRemapError(e)).toBe(true));
     expect(seen.length).toBeGreaterThan(0);
@@ -117,8 +135,14 @@ describe('gradientNetMethod', () => {
 
   test('on a Gaussian pair a short training stays close to the closed-form linear map', async () => {
     // Source: Dowson & Landau 1982 / Olkin & Pukelsheim 1982, A = S^-1/2 (S^1/2 T S^1/2)^1/2 S^-1/2 from population covariances.
-    const S = matrix([[1, 0.3], [0.3, 0.09 + 0.64]]);
-    const T = matrix([[2.25, -0.6], [-0.6, 0.16 + 0.36]]);
+    const S = matrix([
+      [1, 0.3],
+      [0.3, 0.09 + 0.64],
+    ]);
+    const T = matrix([
+      [2.25, -0.6],
+      [-0.6, 0.16 + 0.36],
+    ]);
     const sh = sqrtm(S);
     const shi = inv(sh);
     const A = multiply(multiply(shi, sqrtm(multiply(multiply(sh, T), sh))), shi).toArray() as number[][];
@@ -135,7 +159,7 @@ describe('gradientNetMethod', () => {
     for (let i = 0; i < 3; i++) for (let k = 0; k < 2; k++) expect(Math.abs(out[i * 2 + k] - exact[i][k])).toBeLessThan(0.35);
   });
 
-  test('steps = 0 gives exactly the linear method\'s map on the same data (to 1e-9, original units)', async () => {
+  test("steps = 0 gives exactly the linear method's map on the same data (to 1e-9, original units)", async () => {
     const lin = fitLinear(SRC, TGT, { ridge: 0, units: 'raw' });
     // units = raw on both sides: the map for the plain squared distance.
     const gn = await gradientNetMethod.fit(SRC, TGT, settingsOf({ ...FAST, steps: 0, tails: 'linear', units: 'raw' }), {});
@@ -175,7 +199,11 @@ describe('gradientNetMethod', () => {
   test('on a known non-linear optimal map the trained network beats the linear map by a clear factor', async () => {
     // Source N(0, I_2); target grad phi(x') of an independent draw with phi(x) = |x|^2 / 2 + sum_k softplus(w_k . x + b_k),
     // convex and not quadratic, so grad phi is the optimal map (Brenier 1991) and L2-UVP (Korotin et al. 2021) can be scored on fresh rows.
-    const W = [[3, 0], [0, 3], [2, -2]];
+    const W = [
+      [3, 0],
+      [0, 3],
+      [2, -2],
+    ];
     const B = [0.5, -0.5, 0];
     const gradPhi = (x: Float64Array): Float64Array => {
       const out = Float64Array.from(x);

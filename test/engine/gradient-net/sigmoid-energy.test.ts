@@ -1,7 +1,7 @@
 import { sigmoid, sigmoidEnergy, sigmoidEnergySlope } from '../../../src/engine/gradient-net/sigmoid-energy';
 
 describe('sigmoidEnergy h(u) = s^2/2 - s^3/3', () => {
-  test('its derivative is s\'(u)^2 (central differences)', () => {
+  test("its derivative is s'(u)^2 (central differences)", () => {
     for (const u of [-8, -2, -0.5, 0, 0.7, 3, 9]) {
       const e = 1e-5;
       const fd = (sigmoidEnergy(u + e) - sigmoidEnergy(u - e)) / (2 * e);

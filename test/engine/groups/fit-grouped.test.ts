@@ -67,7 +67,12 @@ describe('fitGroupedMap: one map per group', () => {
     const back = canInvert ? grouped.invert(got, src.groups) : null;
     const expectedBack = new Float64Array(values.n * c.d);
     for (const g of ['north', 'south', 'east']) {
-      const own = await fitMap(c.method, toSample(src, (i) => src.groups[i] === g), toSample(tgt, (i) => tgt.groups[i] === g), c.settings ?? {});
+      const own = await fitMap(
+        c.method,
+        toSample(src, (i) => src.groups[i] === g),
+        toSample(tgt, (i) => tgt.groups[i] === g),
+        c.settings ?? {},
+      );
       const idx = src.groups.map((x, i) => (x === g ? i : -1)).filter((i) => i >= 0);
       const mapped = own.apply(toPoints(idx.map((i) => src.data[i])));
       idx.forEach((row, j) => {
@@ -103,7 +108,9 @@ describe('fitGroupedMap: one map per group', () => {
     const s = { n: 6, d: 1, data: Float64Array.of(1, 2, 3, 4, 5, 6), weights: null };
     const t = { n: 4, d: 1, data: Float64Array.of(10, 20, 30, 40), weights: null };
     expect(() => fitGroupedMapSync('quantile', s, ['a', 'a', 'a', 'b', 'b', 'b'], t, ['a', 'a', 'a', 'a'])).toThrow(/group "b" has no target rows/);
-    expect(() => fitGroupedMapSync('quantile', s, ['a', 'a', 'a', 'a', 'a', 'a'], t, ['a', 'a', 'a', 'a'], {}, { valueGroups: ['a', 'zz'] })).toThrow(/group "zz" has no source and no target rows/);
+    expect(() => fitGroupedMapSync('quantile', s, ['a', 'a', 'a', 'a', 'a', 'a'], t, ['a', 'a', 'a', 'a'], {}, { valueGroups: ['a', 'zz'] })).toThrow(
+      /group "zz" has no source and no target rows/,
+    );
   });
 
   test('fewer Kish effective rows than the method needs is an error naming the group, unless pooled, which warns naming it', () => {
@@ -125,7 +132,12 @@ describe('fitGroupedMap: one map per group', () => {
     expect(m.apply(x, ['b']).data[0]).toBe(all.apply(x, ['p']).data[0]);
     // An unseen group at apply time goes to the pooled map and is named in the report.
     m.apply(x, ['new']);
-    expect(m.report().warnings.map((w) => w.message).join(' ')).toMatch(/"new" \(1 row\)/);
+    expect(
+      m
+        .report()
+        .warnings.map((w) => w.message)
+        .join(' '),
+    ).toMatch(/"new" \(1 row\)/);
   });
 
   test('an unknown group when applying, without a pooled map, is an error listing the known groups', () => {

@@ -26,12 +26,27 @@ describe('affineApply(x, from, M, to, lo, hi) computes to + M (x - from) and cou
   });
 
   test('a row counts once as outside however many coordinates are out', () => {
-    const r = affineApply(points([[5, 5], [0.5, 0.5], [-1, 0.5]]), f64([0, 0]), f64([1, 0, 0, 1]), f64([0, 0]), f64([0, 0]), f64([1, 1]), 'apply');
+    const r = affineApply(
+      points([
+        [5, 5],
+        [0.5, 0.5],
+        [-1, 0.5],
+      ]),
+      f64([0, 0]),
+      f64([1, 0, 0, 1]),
+      f64([0, 0]),
+      f64([0, 0]),
+      f64([1, 1]),
+      'apply',
+    );
     expect(r.outside).toBe(2);
   });
 
   test('a non-finite value throws RemapError naming row and column; the input is not mutated', () => {
-    const x = points([[1, 2], [3, NaN]]);
+    const x = points([
+      [1, 2],
+      [3, NaN],
+    ]);
     expect(() => affineApply(x, f64([0, 0]), f64([1, 0, 0, 1]), f64([0, 0]), f64([0, 0]), f64([9, 9]), 'invert')).toThrow(/invert: row 2, column 2 is NaN/);
     const y = points([[1, 2]]);
     affineApply(Object.freeze(y), f64([0, 0]), f64([1, 0, 0, 1]), f64([0, 0]), f64([0, 0]), f64([9, 9]), 'apply');

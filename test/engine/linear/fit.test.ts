@@ -71,7 +71,7 @@ describe('fitLinear(source, target, settings) fits T(x) = m2 + A (x - m1)', () =
     for (let j = 0; j < 9; j++) expect(back.data[j]).toBeCloseTo(x.data[j], 11);
   });
 
-  test('the cost is the Bures closed form of the samples\' moments; minJacobianEigenvalue is the smallest eigenvalue of A', () => {
+  test("the cost is the Bures closed form of the samples' moments; minJacobianEigenvalue is the smallest eigenvalue of A", () => {
     const s = randomSample(300, 3, 5, 0, true);
     const t = randomSample(250, 3, 6, 1, true);
     const map = fitLinear(s, t, settings, {}, { compare: false });
@@ -89,9 +89,33 @@ describe('fitLinear(source, target, settings) fits T(x) = m2 + A (x - m1)', () =
   });
 
   test('integer weights give the same map as repeated rows', () => {
-    const s = sample([[0, 1], [2, 0], [1, 3], [4, 4], [3, 1]], [1, 2, 1, 3, 1]);
-    const r = sample([[0, 1], [2, 0], [2, 0], [1, 3], [4, 4], [4, 4], [4, 4], [3, 1]]);
-    const t = sample([[5, 5], [6, 9], [8, 6], [7, 7], [9, 9]]);
+    const s = sample(
+      [
+        [0, 1],
+        [2, 0],
+        [1, 3],
+        [4, 4],
+        [3, 1],
+      ],
+      [1, 2, 1, 3, 1],
+    );
+    const r = sample([
+      [0, 1],
+      [2, 0],
+      [2, 0],
+      [1, 3],
+      [4, 4],
+      [4, 4],
+      [4, 4],
+      [3, 1],
+    ]);
+    const t = sample([
+      [5, 5],
+      [6, 9],
+      [8, 6],
+      [7, 7],
+      [9, 9],
+    ]);
     const a = fitLinear(s, t, settings, {}, { compare: false }).parameters.matrix;
     const b = fitLinear(r, t, settings, {}, { compare: false }).parameters.matrix;
     // Source: common practice (frequency weights)
@@ -109,7 +133,13 @@ describe('fitLinear(source, target, settings) fits T(x) = m2 + A (x - m1)', () =
   });
 
   test('a constant source column is refused with a message naming the sample and column and suggesting ridge', () => {
-    const s = sample([[1, 5], [2, 5], [3, 5], [4, 5], [6, 5]]);
+    const s = sample([
+      [1, 5],
+      [2, 5],
+      [3, 5],
+      [4, 5],
+      [6, 5],
+    ]);
     const t = randomSample(20, 2, 9, 0);
     let caught: unknown;
     try {
@@ -123,12 +153,24 @@ describe('fitLinear(source, target, settings) fits T(x) = m2 + A (x - m1)', () =
 
   test('collinear target columns are refused, naming the target', () => {
     const s = randomSample(30, 2, 10, 0);
-    const t = sample([[1, 2], [2, 4], [3, 6], [5, 10], [8, 16]]);
+    const t = sample([
+      [1, 2],
+      [2, 4],
+      [3, 6],
+      [5, 10],
+      [8, 16],
+    ]);
     expect(() => fitLinear(s, t, settings)).toThrow(/the target covariance is singular or nearly so .* column 1, column 2 are \(nearly\) linear combinations/);
   });
 
   test('with ridge set, a singular covariance fits and the fit records a ridge-added warning', () => {
-    const s = sample([[1, 5], [2, 5], [3, 5], [4, 5], [6, 5]]);
+    const s = sample([
+      [1, 5],
+      [2, 5],
+      [3, 5],
+      [4, 5],
+      [6, 5],
+    ]);
     const t = randomSample(40, 2, 11, 0);
     const map = fitLinear(s, t, { ridge: 1e-3, units: 'raw' });
     const codes = map.diagnostics().warnings.map((w) => w.code);
@@ -140,7 +182,11 @@ describe('fitLinear(source, target, settings) fits T(x) = m2 + A (x - m1)', () =
     // The ridge enters both covariances: A (S1 + rI) A = S2 + rI.
     const a = weightedMoments(s);
     const b = weightedMoments(t);
-    for (const [m, r] of [[a.cov, 1e-3], [b.cov, 1e-3]] as const) for (let k = 0; k < 2; k++) m[k * 3] += r;
+    for (const [m, r] of [
+      [a.cov, 1e-3],
+      [b.cov, 1e-3],
+    ] as const)
+      for (let k = 0; k < 2; k++) m[k * 3] += r;
     const asa = product3(map.parameters.matrix, a.cov, map.parameters.matrix, 2);
     for (let j = 0; j < 4; j++) expect(asa[j]).toBeCloseTo(b.cov[j], 10);
   });

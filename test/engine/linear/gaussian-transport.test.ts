@@ -47,7 +47,12 @@ describe('gaussianTransport(eig(S1), S1, S2): A = S1^-1/2 (S1^1/2 S2 S1^1/2)^1/2
     // Source: Knott & Smith 1984 (the map pushes N(m1, S1) to N(m2, S2): A S1 A = S2)
     const asa = product3(g.matrix, s1, g.matrix, d);
     for (let j = 0; j < d * d; j++) expect(asa[j]).toBeCloseTo(s2[j], 11);
-    const id = product3(g.matrix, g.inverse, Float64Array.from({ length: d * d }, (_, j) => (j % (d + 1) === 0 ? 1 : 0)), d);
+    const id = product3(
+      g.matrix,
+      g.inverse,
+      Float64Array.from({ length: d * d }, (_, j) => (j % (d + 1) === 0 ? 1 : 0)),
+      d,
+    );
     for (let j = 0; j < d * d; j++) expect(id[j]).toBeCloseTo(j % (d + 1) === 0 ? 1 : 0, 12);
   });
 

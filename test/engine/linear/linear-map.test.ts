@@ -2,10 +2,8 @@ import { extrapolationWarning } from '../../../src/engine/outside';
 import { parseMapJSON } from '../../../src/engine/map-json';
 import { fitLinear } from '../../../src/engine/linear/fit';
 import { LinearMap } from '../../../src/engine/linear/linear-map';
-import { linearMethod } from '../../../src/engine/linear/method';
 import type { MapJSON } from '../../../src/engine/map';
 import type { Sample } from '../../../src/engine/points';
-
 
 function rng(seed: number): () => number {
   let s = seed >>> 0;

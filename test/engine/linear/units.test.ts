@@ -35,7 +35,12 @@ function momentsMl(s: Sample): { mean: number[]; cov: Matrix } {
   const C = Matrix.zeros(s.d, s.d);
   for (let i = 0; i < s.n; i++) {
     const e = Matrix.rowVector(X.getRow(i).map((v, k) => v - mean[k]));
-    C.add(e.transpose().mmul(e).mul(w[i] / total));
+    C.add(
+      e
+        .transpose()
+        .mmul(e)
+        .mul(w[i] / total),
+    );
   }
   return { mean, cov: C };
 }
@@ -64,7 +69,12 @@ describe('the linear map in standardised units (units=standardised, the default)
 
   test('the map is T(x) = D^-1 T_s(D x), linear, with the eigenvalues of the standardised map; the cost says its units', () => {
     const map = fitLinear(src, tgt, { ridge: 0 }, {}, { compare: false });
-    const A = new Matrix([Array.from(map.parameters.matrix.slice(0, 4)), Array.from(map.parameters.matrix.slice(4, 8)), Array.from(map.parameters.matrix.slice(8, 12)), Array.from(map.parameters.matrix.slice(12, 16))]);
+    const A = new Matrix([
+      Array.from(map.parameters.matrix.slice(0, 4)),
+      Array.from(map.parameters.matrix.slice(4, 8)),
+      Array.from(map.parameters.matrix.slice(8, 12)),
+      Array.from(map.parameters.matrix.slice(12, 16)),
+    ]);
     const Ainv = new Matrix([0, 1, 2, 3].map((r) => Array.from(map.parameters.inverse.slice(4 * r, 4 * r + 4))));
     // Source: ml-matrix product: the stored inverse is the inverse of the stored matrix
     const I = A.mmul(Ainv);
@@ -89,10 +99,12 @@ describe('the linear map in standardised units (units=standardised, the default)
     expect(raw.cost().note).toMatch(/units=raw/);
   });
 
-  test('a constant column in standardised units suggests a ridge of 1e-6, a millionth of each column\'s pooled variance', () => {
+  test("a constant column in standardised units suggests a ridge of 1e-6, a millionth of each column's pooled variance", () => {
     const rows = Array.from({ length: 20 }, (_, i) => [30000 + 1000 * Math.sin(i), 0.05]);
     const t = Array.from({ length: 20 }, (_, i) => [31000 + 900 * Math.cos(i), 0.04 + 0.001 * Math.sin(3 * i)]);
     // Source: design choice (advice that swamps no column)
-    expect(() => fitLinear(sample(rows), sample(t), { ridge: 0 })).toThrow(/column 2 is constant\. .*set ridge=0\.000001 \(a millionth of each column's pooled variance/);
+    expect(() => fitLinear(sample(rows), sample(t), { ridge: 0 })).toThrow(
+      /column 2 is constant\. .*set ridge=0\.000001 \(a millionth of each column's pooled variance/,
+    );
   });
 });

@@ -8,7 +8,7 @@ function bruteForce(c: Float64Array, n: number): number {
   const total = (): number => p.reduce((s, j, i) => s + c[i * n + j], 0);
   let best = total();
   const k = new Array(n).fill(0);
-  for (let i = 1; i < n; ) {
+  for (let i = 1; i < n;) {
     if (k[i] < i) {
       const a = i % 2 === 0 ? 0 : k[i];
       [p[a], p[i]] = [p[i], p[a]];

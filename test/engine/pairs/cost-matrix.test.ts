@@ -4,8 +4,15 @@ import { column, points } from '../../../src/engine/points';
 
 describe('squaredDistanceTable', () => {
   test('squaredDistanceTable(source, target)[i * target.n + j] is the squared Euclidean distance |x_i - y_j|^2', () => {
-    const x = points([[0, 0], [1, 2]]);
-    const y = points([[3, 4], [1, 0], [1, 2]]);
+    const x = points([
+      [0, 0],
+      [1, 2],
+    ]);
+    const y = points([
+      [3, 4],
+      [1, 0],
+      [1, 2],
+    ]);
     // Source: computed by hand: (0,0)-(3,4): 9+16=25; (0,0)-(1,0): 1; (0,0)-(1,2): 5; (1,2)-(3,4): 4+4=8; (1,2)-(1,0): 4; (1,2)-(1,2): 0.
     expect(Array.from(squaredDistanceTable(x, y))).toEqual([25, 1, 5, 8, 4, 0]);
   });
@@ -22,8 +29,14 @@ describe('squaredDistanceTable', () => {
   });
 
   test('squaredDistanceTable does not mutate its inputs', () => {
-    const x = points([[1, 2], [3, 4]]);
-    const y = points([[5, 6], [7, 8]]);
+    const x = points([
+      [1, 2],
+      [3, 4],
+    ]);
+    const y = points([
+      [5, 6],
+      [7, 8],
+    ]);
     const bx = x.data.slice();
     const by = y.data.slice();
     squaredDistanceTable(x, y);

@@ -5,7 +5,6 @@ import { fitPairs, pairsMethod } from '../../../src/engine/pairs/method';
 import { column, sample, toRows } from '../../../src/engine/points';
 import { divideColumns, pooledColumnScales } from '../../../src/engine/stats/column-scales';
 
-
 function rng(seed: number): () => number {
   let s = seed;
   return () => {
@@ -27,7 +26,15 @@ describe('pairsMethod', () => {
 
   test('fitMapSync("pairs") fits synchronously and restoreMap brings the map back from JSON', () => {
     const rows = Object.freeze([Object.freeze([1, 2]), Object.freeze([3, 1]), Object.freeze([0, 0])]);
-    const m = fitMapSync('pairs', sample(rows), sample([[10, 10], [0, 1], [12, 11]]));
+    const m = fitMapSync(
+      'pairs',
+      sample(rows),
+      sample([
+        [10, 10],
+        [0, 1],
+        [12, 11],
+      ]),
+    );
     expect(m.method).toBe('pairs');
     const back = restoreMap(JSON.parse(JSON.stringify(m.toJSON())));
     expect(toRows(back.apply(sample(rows)))).toEqual(toRows(m.apply(sample(rows))));
@@ -55,12 +62,18 @@ describe('pairsMethod', () => {
     expect(m.diagnostics().convergence?.iterations).toBe(seen[seen.length - 1].of);
     const signal = { aborted: false };
     await expect(
-      fitMap('pairs', src, tgt, {}, {
-        signal,
-        onProgress: (p) => {
-          if (p.step > 0) signal.aborted = true;
+      fitMap(
+        'pairs',
+        src,
+        tgt,
+        {},
+        {
+          signal,
+          onProgress: (p) => {
+            if (p.step > 0) signal.aborted = true;
+          },
         },
-      }),
+      ),
     ).rejects.toMatchObject({ kind: 'cancelled' });
   });
 
@@ -83,8 +96,18 @@ describe('pairsMethod', () => {
   test('units = standardised (the default) pairs the rows as the raw pairing of both samples divided by the pooled column spreads', () => {
     // Source: the definition of fitting in standardised units (src/engine/stats/column-scales.ts). Two columns on scales
     // 1 and 1000: in raw units the second column decides the pairing; standardised, both count.
-    const src = sample([[0, 0], [1, 1000], [2, 3000], [3, 500]]);
-    const tgt = sample([[3, 0], [2, 2000], [1, 2500], [0, 1000]]);
+    const src = sample([
+      [0, 0],
+      [1, 1000],
+      [2, 3000],
+      [3, 500],
+    ]);
+    const tgt = sample([
+      [3, 0],
+      [2, 2000],
+      [1, 2500],
+      [0, 1000],
+    ]);
     const scales = pooledColumnScales(src, tgt);
     const divided = fitPairs(divideColumns(src, scales), divideColumns(tgt, scales), { units: 'raw' }).pairs();
     expect(Array.from(fitPairs(src, tgt, {}).pairs())).toEqual(Array.from(divided));

@@ -24,14 +24,52 @@ function sameBits(a: Float64Array, b: Float64Array): boolean {
 }
 
 describe('PairsMap', () => {
-  const src = sample([[0, 0], [4, 0], [0, 3]]);
-  const tgt = sample([[5, 1], [1, 4], [1, 1]]);
+  const src = sample([
+    [0, 0],
+    [4, 0],
+    [0, 3],
+  ]);
+  const tgt = sample([
+    [5, 1],
+    [1, 4],
+    [1, 1],
+  ]);
   // Source: computed by hand over the 6 permutations: (0,0)->(1,1), (4,0)->(5,1), (0,3)->(1,4): cost 2+2+2 = 6, mean 2.
   const map = fitPairs(src, tgt, settings);
 
   test('apply maps each source row to its partner exactly, and invert maps each target row back', () => {
-    expect(toRows(map.apply(points([[4, 0], [0, 0], [0, 3], [4, 0]])))).toEqual([[5, 1], [1, 1], [1, 4], [5, 1]]);
-    expect(toRows(map.invert(points([[1, 4], [5, 1], [1, 1]])))).toEqual([[0, 3], [4, 0], [0, 0]]);
+    expect(
+      toRows(
+        map.apply(
+          points([
+            [4, 0],
+            [0, 0],
+            [0, 3],
+            [4, 0],
+          ]),
+        ),
+      ),
+    ).toEqual([
+      [5, 1],
+      [1, 1],
+      [1, 4],
+      [5, 1],
+    ]);
+    expect(
+      toRows(
+        map.invert(
+          points([
+            [1, 4],
+            [5, 1],
+            [1, 1],
+          ]),
+        ),
+      ),
+    ).toEqual([
+      [0, 3],
+      [4, 0],
+      [0, 0],
+    ]);
     expect(Array.from(map.pairs())).toEqual([2, 0, 1]);
     expect(map.apply(points([[4, 0]])).outside).toBe(0);
   });
@@ -47,13 +85,20 @@ describe('PairsMap', () => {
   test('apply on a row that is not a source row throws RemapError (kind na) naming the row and the methods for new points', () => {
     let err: unknown;
     try {
-      map.apply(points([[0, 0], [1, 2]]));
+      map.apply(
+        points([
+          [0, 0],
+          [1, 2],
+        ]),
+      );
     } catch (e) {
       err = e;
     }
     expect(err).toBeInstanceOf(RemapError);
     expect((err as RemapError).kind).toBe('na');
-    expect((err as Error).message).toMatch(/^apply \(pairs\): row 2 of the values \(1, 2\) is not one of the 3 source rows.*maps the source rows only.*entropic or gradient-net/);
+    expect((err as Error).message).toMatch(
+      /^apply \(pairs\): row 2 of the values \(1, 2\) is not one of the 3 source rows.*maps the source rows only.*entropic or gradient-net/,
+    );
     expect(() => map.invert(points([[0, 0]]))).toThrow(/invert \(pairs\): row 1 .* not one of the 3 target rows.*inverts the target rows only/);
     expect(() => map.apply(column([0]))).toThrow(/1 column but the pairs map was fitted on 2/);
   });
@@ -77,7 +122,7 @@ describe('PairsMap', () => {
     expect(map.diagnostics().warnings.map((w) => w.code)).not.toContain('ties');
   });
 
-  test('the averaged images of repeated values stay monotone: <x - x\', T(x) - T(x\')> >= 0 on all distinct source values', () => {
+  test("the averaged images of repeated values stay monotone: <x - x', T(x) - T(x')> >= 0 on all distinct source values", () => {
     const r = rng(31);
     const base = Array.from({ length: 12 }, () => [Math.floor(r() * 4), Math.floor(r() * 4)]);
     const rows = [...base, ...base.slice(0, 8)]; // 20 rows with repeats
@@ -122,7 +167,18 @@ describe('PairsMap', () => {
     expect(() => PairsMap.fromJSON(withParams(null))).toThrow(/no params/);
     expect(() => PairsMap.fromJSON(withParams({ ...p, source: p.source.slice(1) }))).toThrow(/source rows must be a list of 3 rows; found 2/);
     expect(() => PairsMap.fromJSON(withParams({ ...p, target: [[1, 2], [3], [4, 5]] }))).toThrow(/target row 2 must hold 2 numbers/);
-    expect(() => PairsMap.fromJSON(withParams({ ...p, target: [[1, 2], [3, 'x'], [4, 5]] }))).toThrow(/row 2, column 2 is not a finite number/);
+    expect(() =>
+      PairsMap.fromJSON(
+        withParams({
+          ...p,
+          target: [
+            [1, 2],
+            [3, 'x'],
+            [4, 5],
+          ],
+        }),
+      ),
+    ).toThrow(/row 2, column 2 is not a finite number/);
     expect(() => PairsMap.fromJSON(withParams({ ...p, permutation: [0, 0, 1] }))).toThrow(/entry 2 of the permutation \(0\)/);
     expect(() => PairsMap.fromJSON(withParams({ ...p, permutation: [0, 1, 2.5] }))).toThrow(/entry 3 of the permutation/);
     expect(() => PairsMap.fromJSON({ ...json, n: { source: 3, target: 4 } })).toThrow(/3 source and 4 target rows/);
@@ -138,8 +194,14 @@ describe('PairsMap', () => {
   });
 
   test('fitting does not mutate the samples, and the map keeps its own copy', () => {
-    const xs: Points = points([[1, 2], [3, 4]]);
-    const ys: Points = points([[5, 6], [7, 8]]);
+    const xs: Points = points([
+      [1, 2],
+      [3, 4],
+    ]);
+    const ys: Points = points([
+      [5, 6],
+      [7, 8],
+    ]);
     const bx = xs.data.slice();
     const by = ys.data.slice();
     const m = fitPairs({ ...xs, weights: null }, { ...ys, weights: null }, settings);

@@ -3,7 +3,16 @@ import { points } from '../../../src/engine/points';
 
 describe('RowLookup', () => {
   test('RowLookup groups identical rows by first appearance and counts them', () => {
-    const look = new RowLookup(points([[1, 2], [3, 4], [1, 2], [5, 6], [3, 4], [1, 2]]));
+    const look = new RowLookup(
+      points([
+        [1, 2],
+        [3, 4],
+        [1, 2],
+        [5, 6],
+        [3, 4],
+        [1, 2],
+      ]),
+    );
     // Source: the rows themselves (groups in order of first appearance: [1,2], [3,4], [5,6])
     expect(look.groups).toBe(3);
     expect(Array.from(look.groupOf)).toEqual([0, 1, 0, 2, 1, 0]);
@@ -12,7 +21,12 @@ describe('RowLookup', () => {
   });
 
   test('RowLookup.find matches exact coordinates only, at any offset', () => {
-    const look = new RowLookup(points([[1, 2], [3, 4]]));
+    const look = new RowLookup(
+      points([
+        [1, 2],
+        [3, 4],
+      ]),
+    );
     const q = Float64Array.from([9, 3, 4, 1, 2]);
     expect(look.find(q, 1)).toBe(1);
     expect(look.find(q, 3)).toBe(0);
@@ -23,7 +37,12 @@ describe('RowLookup', () => {
   });
 
   test('RowLookup treats 0 and -0 as the same value and never matches NaN', () => {
-    const look = new RowLookup(points([[0, -0], [NaN, 1]]));
+    const look = new RowLookup(
+      points([
+        [0, -0],
+        [NaN, 1],
+      ]),
+    );
     expect(look.find(Float64Array.from([-0, 0]), 0)).toBe(0);
     expect(look.find(Float64Array.from([NaN, 1]), 0)).toBe(-1);
     expect(rowHash(Float64Array.from([0]), 0, 1)).toBe(rowHash(Float64Array.from([-0]), 0, 1));

@@ -23,7 +23,17 @@ describe('twoCycleCheck', () => {
   });
 
   test('twoCycleCheck tolerance is 1e-9 times the squared diameter of both samples', () => {
-    const r = twoCycleCheck(points([[0, 0], [3, 0]]), points([[0, 4], [1, 1]]), Int32Array.from([0, 1]));
+    const r = twoCycleCheck(
+      points([
+        [0, 0],
+        [3, 0],
+      ]),
+      points([
+        [0, 4],
+        [1, 1],
+      ]),
+      Int32Array.from([0, 1]),
+    );
     // Source: computed by hand: column ranges 0..3 and 0..4, so diameter^2 = 9 + 16 = 25.
     expect(r.tolerance).toBeCloseTo(25e-9, 20);
   });

@@ -21,7 +21,20 @@ describe('ordinal method', () => {
     expect(() => fit(sample([1, 2.5, 3]), sample([1, 2]))).toThrow(RemapError);
     expect(() => fit(sample([1, 2.5, 3]), sample([1, 2]))).toThrow(/fit \(ordinal\): source, row 2 holds 2.5.*method quantile/);
     expect(() => fit(sample([1, 2]), sample([0.25, 2]))).toThrow(/target, row 1 holds 0.25/);
-    expect(() => fit(sample([[1, 2], [3, 4]]), sample([[1, 2], [3, 4.5]]), {}, ['Math', 'Reading'])).toThrow(/column "Reading": target, row 2/);
+    expect(() =>
+      fit(
+        sample([
+          [1, 2],
+          [3, 4],
+        ]),
+        sample([
+          [1, 2],
+          [3, 4.5],
+        ]),
+        {},
+        ['Math', 'Reading'],
+      ),
+    ).toThrow(/column "Reading": target, row 2/);
   });
 
   test('a score with zero frequency in the target is stepped over', () => {

@@ -107,8 +107,16 @@ describe('quantile method', () => {
   });
 
   test('several columns: each matched on its own, with a marginals-only warning and per-column costs', () => {
-    const s = sample([[0, 100], [1, 300], [2, 200]]);
-    const t = sample([[10, 1], [30, 3], [20, 2]]);
+    const s = sample([
+      [0, 100],
+      [1, 300],
+      [2, 200],
+    ]);
+    const t = sample([
+      [10, 1],
+      [30, 3],
+      [20, 2],
+    ]);
     const m = fit(quantileMethod, s, t);
     expect(Array.from(m.apply(s).data)).toEqual([10, 1, 20, 3, 30, 2]);
     const d = m.diagnostics();

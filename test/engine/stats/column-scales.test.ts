@@ -15,12 +15,37 @@ describe('pooledColumnScales(source, target): one spread per column shared by bo
   });
   test('weights count as frequencies, and a constant column gets 1', () => {
     // Source: a weight of 2 is the same as writing the row twice (frequency weights, common practice).
-    const w = columnVariances(sample([[1, 7], [2, 7], [4, 7]], [1, 2, 1]));
+    const w = columnVariances(
+      sample(
+        [
+          [1, 7],
+          [2, 7],
+          [4, 7],
+        ],
+        [1, 2, 1],
+      ),
+    );
     expect(w[0]).toBeCloseTo(variance([1, 2, 2, 4]), 14);
-    expect(pooledColumnScales(sample([[1, 7], [2, 7]]), sample([[3, 7], [5, 7]]))[1]).toBe(1);
+    expect(
+      pooledColumnScales(
+        sample([
+          [1, 7],
+          [2, 7],
+        ]),
+        sample([
+          [3, 7],
+          [5, 7],
+        ]),
+      )[1],
+    ).toBe(1);
   });
   test('divideColumns returns new points and leaves its input alone', () => {
-    const p = Object.freeze(sample([[2, 300], [4, 600]]));
+    const p = Object.freeze(
+      sample([
+        [2, 300],
+        [4, 600],
+      ]),
+    );
     const q = divideColumns(p, Float64Array.from([2, 300]));
     expect(Array.from(q.data)).toEqual([1, 1, 2, 2]);
     expect(Array.from(p.data)).toEqual([2, 300, 4, 600]);

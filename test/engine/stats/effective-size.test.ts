@@ -42,7 +42,11 @@ describe('the small-sample warning counts effective rows, not rows', () => {
       const small = weighted.warnings.find((v) => v.code === 'small-sample');
       expect(small?.message).toMatch(/The source's 100 rows carry an effective sample size of only 3\.96/);
       // Source: common practice threshold of 30 rows (base.ts)
-      expect(fitMapSync(method, sample(x), sample(y)).diagnostics().warnings.map((v) => v.code)).not.toContain('small-sample');
+      expect(
+        fitMapSync(method, sample(x), sample(y))
+          .diagnostics()
+          .warnings.map((v) => v.code),
+      ).not.toContain('small-sample');
     }
   });
 

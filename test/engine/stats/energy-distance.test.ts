@@ -36,7 +36,7 @@ function bruteEnergy(a: Points, b: Points, wa?: ArrayLike<number>, wb?: ArrayLik
   return 2 * xy - xx - yy;
 }
 
-describe('energyDistance(a, b, wa, wb) is the weighted V-statistic 2E|X-Y| - E|X-X\'| - E|Y-Y\'|', () => {
+describe("energyDistance(a, b, wa, wb) is the weighted V-statistic 2E|X-Y| - E|X-X'| - E|Y-Y'|", () => {
   test('point masses at 0 and 1 are at energy distance 2', () => {
     // Source: definition (2 * 1 - 0 - 0)
     expect(energyDistance(column([0]), column([1]))).toEqual({ value: 2, subsampled: false, rows: { a: 1, b: 1 } });

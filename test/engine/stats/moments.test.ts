@@ -31,8 +31,7 @@ describe('weightedMoments(p, weights) gives the moments of the empirical distrib
     for (let i = 0; i < p.n; i++) rows.push(Array.from(p.data.subarray(i * p.d, (i + 1) * p.d)));
     // Source: ml-matrix covariance (unbiased, divides by n - 1)
     const ref = covariance(new Matrix(rows)).to2DArray();
-    for (let k = 0; k < p.d; k++)
-      for (let l = 0; l < p.d; l++) expect(m.cov[k * p.d + l]).toBeCloseTo((ref[k][l] * (p.n - 1)) / p.n, 12);
+    for (let k = 0; k < p.d; k++) for (let l = 0; l < p.d; l++) expect(m.cov[k * p.d + l]).toBeCloseTo((ref[k][l] * (p.n - 1)) / p.n, 12);
     expect(m.totalWeight).toBe(700);
   });
 

@@ -122,7 +122,13 @@ describe('stats/sort', () => {
       for (const [name, v] of Object.entries(columns(n, 7 * n))) {
         const r = radixSort(v, true);
         const order = r?.order ?? new Uint32Array(0);
-        expect([name, sameBits(Array.from(order, (i) => v[i]), r?.sorted ?? [])]).toEqual([name, true]);
+        expect([
+          name,
+          sameBits(
+            Array.from(order, (i) => v[i]),
+            r?.sorted ?? [],
+          ),
+        ]).toEqual([name, true]);
         // Source: common practice (a stable sort), with negative ties reversed as the packed sort gave them
         expect([name, Array.from(order)]).toEqual([name, referenceOrder(v)]);
       }
@@ -149,7 +155,10 @@ describe('stats/sort', () => {
       expect([name, sameBits(sortedCopy(big), big.slice().sort())]).toEqual([name, true]);
       // the packed sort (below RADIX_MIN) on a slice: the same rule
       const small = big.subarray(0, RADIX_MIN - 1);
-      expect([name, Array.from(sortWithOrder(small).order)]).toEqual([name, isSortedAscending(small) ? identity.slice(0, small.length) : referenceOrder(small)]);
+      expect([name, Array.from(sortWithOrder(small).order)]).toEqual([
+        name,
+        isSortedAscending(small) ? identity.slice(0, small.length) : referenceOrder(small),
+      ]);
       expect([name, sameBits(sortedCopy(small), small.slice().sort())]).toEqual([name, true]);
     }
     expect(() => sortWithOrder(Float64Array.from({ length: RADIX_MIN }, (_, i) => (i === 4000 ? NaN : -i)))).toThrow(/value 4001 is NaN/);

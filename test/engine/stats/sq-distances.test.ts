@@ -5,18 +5,51 @@ import { rowSquaredNorms, squaredDistances, squaredDistancesRow } from '../../..
 describe('sq-distances', () => {
   test('rowSquaredNorms(p) is the sum of squared coordinates of each row', () => {
     // Source: common practice, 3^2 + 4^2 = 25.
-    expect(Array.from(rowSquaredNorms(points([[3, 4], [1, 0], [0, 0]])))).toEqual([25, 1, 0]);
+    expect(
+      Array.from(
+        rowSquaredNorms(
+          points([
+            [3, 4],
+            [1, 0],
+            [0, 0],
+          ]),
+        ),
+      ),
+    ).toEqual([25, 1, 0]);
   });
 
   test('squaredDistances(x, y) is the n x m matrix |x_i - y_j|^2, row-major', () => {
     // Source: common practice, hand computed.
     expect(Array.from(squaredDistances(points([[0], [1]]), points([[0], [2], [3]])))).toEqual([0, 4, 9, 1, 1, 4]);
-    expect(Array.from(squaredDistances(points([[0, 0]]), points([[3, 4], [1, 1]]), 0.5))).toEqual([12.5, 1]);
+    expect(
+      Array.from(
+        squaredDistances(
+          points([[0, 0]]),
+          points([
+            [3, 4],
+            [1, 1],
+          ]),
+          0.5,
+        ),
+      ),
+    ).toEqual([12.5, 1]);
   });
 
   test('squaredDistancesRow writes one row at an offset and leaves the rest alone', () => {
     const out = new Float64Array(5).fill(-1);
-    squaredDistancesRow(points([[1, 1], [2, 2]]), 1, points([[0, 0], [2, 3]]), out, 2);
+    squaredDistancesRow(
+      points([
+        [1, 1],
+        [2, 2],
+      ]),
+      1,
+      points([
+        [0, 0],
+        [2, 3],
+      ]),
+      out,
+      2,
+    );
     // Source: common practice, |(2,2)-(0,0)|^2 = 8, |(2,2)-(2,3)|^2 = 1.
     expect(Array.from(out)).toEqual([-1, -1, 8, 1, -1]);
   });
@@ -29,7 +62,10 @@ describe('sq-distances', () => {
   });
 
   test('inputs are not mutated', () => {
-    const x = points([[1, 2], [3, 4]]);
+    const x = points([
+      [1, 2],
+      [3, 4],
+    ]);
     const y = points([[5, 6]]);
     const bx = Float64Array.from(x.data);
     const by = Float64Array.from(y.data);

@@ -61,7 +61,9 @@ describe('fitFromTables: quantile and frequency tables as source or target', () 
     // Design choice: below the first probability (0.00135) the map holds the first value -3.
     expect(Array.from(hold.apply(column([0.0001, 0.9999])).data)).toEqual([-3, 3]);
     expect(hold.diagnostics().warnings.map((w) => w.code)).toContain('extrapolation');
-    expect(hold.diagnostics().warnings.find((w) => w.code === 'extrapolation')!.message).toMatch(/first probability 0\.00135.*holds the table's end values \(-3 and 3\)/);
+    expect(hold.diagnostics().warnings.find((w) => w.code === 'extrapolation')!.message).toMatch(
+      /first probability 0\.00135.*holds the table's end values \(-3 and 3\)/,
+    );
     const ext = fitFromTables('quantile', uniform, { kind: 'quantiles', table }, {}, 'extend');
     // Extending the first step (P(-3), -3)-(P(-2.5), -2.5) to probability 0.0001, by the straight-line rule.
     const slope = 0.5 / (P(-2.5) - P(-3));
@@ -73,7 +75,10 @@ describe('fitFromTables: quantile and frequency tables as source or target', () 
     const { table } = normalTable();
     const map = fitFromTables('quantile', uniform, { kind: 'quantiles', table });
     const coarse = map.diagnostics().warnings.filter((w) => w.code === 'small-sample');
-    expect(coarse.map((w) => w.message)).toEqual([expect.stringMatching(/source quantile table is coarse \(2 points/), expect.stringMatching(/target quantile table is coarse \(13 points/)]);
+    expect(coarse.map((w) => w.message)).toEqual([
+      expect.stringMatching(/source quantile table is coarse \(2 points/),
+      expect.stringMatching(/target quantile table is coarse \(13 points/),
+    ]);
     expect(map.cost().note).toMatch(/quantile table read linearly between its 13 points/);
     const text = JSON.stringify(map.toJSON());
     const restored = restoreMap(parseMapJSON(text));
@@ -89,8 +94,16 @@ describe('fitFromTables: quantile and frequency tables as source or target', () 
     const rows = scores.flatMap((s, k) => Array(counts[k]).fill(s));
     const r = new Random(3);
     const src = Array.from({ length: 150 }, () => Math.floor(r.uniform() * 11));
-    const fromTable = fitFromTables(method, { kind: 'sample', sample: { n: 150, d: 1, data: Float64Array.from(src), weights: null } }, { kind: 'frequencies', table: frequencyTable(scores, counts, 'target table') });
-    const fromRows = fitMapSync(method, { n: 150, d: 1, data: Float64Array.from(src), weights: null }, { n: rows.length, d: 1, data: Float64Array.from(rows), weights: null });
+    const fromTable = fitFromTables(
+      method,
+      { kind: 'sample', sample: { n: 150, d: 1, data: Float64Array.from(src), weights: null } },
+      { kind: 'frequencies', table: frequencyTable(scores, counts, 'target table') },
+    );
+    const fromRows = fitMapSync(
+      method,
+      { n: 150, d: 1, data: Float64Array.from(src), weights: null },
+      { n: rows.length, d: 1, data: Float64Array.from(rows), weights: null },
+    );
     const x = column([0, 0.5, 1, 2, 3.2, 5, 7, 9.9, 10]);
     // Source: the definition of a frequency table (each value counted as often as its count).
     expect(Array.from(fromTable.apply(x).data)).toEqual(Array.from(fromRows.apply(x).data));

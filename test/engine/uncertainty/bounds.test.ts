@@ -74,9 +74,14 @@ describe('bounds on mapped values', () => {
     expect(b.warnings.map((w) => w.message).join(' ')).toMatch(/No replicate weights were given for the source/);
   });
 
-  test('a refit with the samples\' own weights gives the fitted map\'s own numbers to rounding (1-D methods)', () => {
+  test("a refit with the samples' own weights gives the fitted map's own numbers to rounding (1-D methods)", () => {
     const r = new Random(9);
-    const src = { n: 50, d: 1, data: Float64Array.from({ length: 50 }, () => Math.floor(r.uniform() * 9)), weights: Float64Array.from({ length: 50 }, () => 0.5 + r.uniform()) };
+    const src = {
+      n: 50,
+      d: 1,
+      data: Float64Array.from({ length: 50 }, () => Math.floor(r.uniform() * 9)),
+      weights: Float64Array.from({ length: 50 }, () => 0.5 + r.uniform()),
+    };
     const tgt = { n: 40, d: 1, data: Float64Array.from({ length: 40 }, () => Math.floor(r.uniform() * 12)), weights: null };
     const x = column([0, 1.5, 3, 4.2, 8, 9.5]);
     for (const method of ['quantile', 'step', 'ordinal'] as const) {
@@ -133,6 +138,8 @@ describe('bounds on mapped values', () => {
     expect(() => bootstrapBounds('quantile', s, s, column([1]), { level: 95 })).toThrow(/level is 95; give a share between 0 and 1/);
     expect(() => bootstrapBounds('quantile', s, s, column([1]), { replicates: 5 })).toThrow(/replicates is 5/);
     expect(() => replicateBounds('quantile', s, s, column([1]), {})).toThrow(/no replicate weights were given/);
-    expect(() => replicateBounds('quantile', s, s, column([1]), { source: { kind: 'jackknife', weights: { n: 3, d: 2, data: new Float64Array(6).fill(1) } } })).toThrow(/3 rows but the source has 4/);
+    expect(() =>
+      replicateBounds('quantile', s, s, column([1]), { source: { kind: 'jackknife', weights: { n: 3, d: 2, data: new Float64Array(6).fill(1) } } }),
+    ).toThrow(/3 rows but the source has 4/);
   });
 });

@@ -81,7 +81,8 @@ describe('the fast refits of bootstrap replicates', () => {
         const sides = fitter.sides!;
         const run =
           method === 'quantile'
-            ? () => expect(new QuantileAtValues(sides.source.distinct, sides.target.distinct, sorted, order).map(running(sw), running(tw), tails, out)).toBe(true)
+            ? () =>
+                expect(new QuantileAtValues(sides.source.distinct, sides.target.distinct, sorted, order).map(running(sw), running(tw), tails, out)).toBe(true)
             : method === 'step'
               ? () => new StepAtValues(sides.source.distinct, sides.target.distinct, sorted, order).map(running(sw), running(tw), tails, out)
               : () => fitter.mapWith(sw, tw, out);
@@ -156,20 +157,28 @@ describe('the fast refits of bootstrap replicates', () => {
     }
   });
 
-  test.each(['quantile', 'step', 'ordinal', 'linear'] as const)('%s: bootstrap replicates by the fast way equal those by the general refit, draw for draw', (method) => {
-    const r = new Random(12);
-    for (const [weighted, step] of [[false, 0], [false, 1], [true, 0], [true, 1]] as const) {
-      const src = draw(r, 60, 2, 5, method === 'ordinal' ? 1 : step, weighted);
-      const tgt = draw(r, 45, 3, 20, method === 'ordinal' ? 1 : step, weighted);
-      const x = column([-3, 2, 4.5, 5, 6.2, 9, 14]);
-      const settings: Record<string, string | number> = method === 'linear' ? { ridge: 0, units: 'standardised' } : { tails: 'linear' };
-      const fitter = new ReplicateFitter(method, src, tgt, x, settings);
-      const fast = bootstrapReplicates(fitter, src, tgt, 30, x.n, 3, 'fast');
-      const slow = bootstrapReplicates(fitter, src, tgt, 30, x.n, 3, 'refit');
-      expect(fast.failed).toBe(slow.failed);
-      expectSame(fast.reps, slow.reps);
-    }
-  });
+  test.each(['quantile', 'step', 'ordinal', 'linear'] as const)(
+    '%s: bootstrap replicates by the fast way equal those by the general refit, draw for draw',
+    (method) => {
+      const r = new Random(12);
+      for (const [weighted, step] of [
+        [false, 0],
+        [false, 1],
+        [true, 0],
+        [true, 1],
+      ] as const) {
+        const src = draw(r, 60, 2, 5, method === 'ordinal' ? 1 : step, weighted);
+        const tgt = draw(r, 45, 3, 20, method === 'ordinal' ? 1 : step, weighted);
+        const x = column([-3, 2, 4.5, 5, 6.2, 9, 14]);
+        const settings: Record<string, string | number> = method === 'linear' ? { ridge: 0, units: 'standardised' } : { tails: 'linear' };
+        const fitter = new ReplicateFitter(method, src, tgt, x, settings);
+        const fast = bootstrapReplicates(fitter, src, tgt, 30, x.n, 3, 'fast');
+        const slow = bootstrapReplicates(fitter, src, tgt, 30, x.n, 3, 'refit');
+        expect(fast.failed).toBe(slow.failed);
+        expectSame(fast.reps, slow.reps);
+      }
+    },
+  );
 });
 
 describe('the resampling stream', () => {
@@ -204,7 +213,12 @@ describe('the resampling stream', () => {
     const w = Float64Array.of(1, 2, 3, 4, 5, 6, 7, 8, 9, 10);
     const counts = new Int32Array(10);
     new ResampleStream(7).aliasCounts(new AliasTable(w), 110_000, counts);
-    expect(chi2(counts, Array.from(w, (v) => v * 2000))).toBeLessThan(CHI2_9_999);
+    expect(
+      chi2(
+        counts,
+        Array.from(w, (v) => v * 2000),
+      ),
+    ).toBeLessThan(CHI2_9_999);
   });
 
   test('the same seed gives the same draws; another seed others', () => {
