@@ -273,8 +273,25 @@ describe('apply through the typed-array reader writes what the general path writ
     ] as const) {
       const fast = mapTable(scanNumericCSV(text, 'f.csv')!, map, 'apply');
       expect(fast).not.toBeNull();
-      expect(fast!.csv).toBe(await generalApply(text, map, [...cols]));
+      const pieces: Uint8Array[] = [];
+      fast!.write((p) => pieces.push(p));
+      expect(Buffer.concat(pieces).toString('utf8')).toBe(await generalApply(text, map, [...cols]));
     }
+    map.dispose();
+  });
+
+  test('output of several pieces (over a megabyte) with non-ASCII text passed through is the same bytes', async () => {
+    const x = { n: 5, d: 1, data: Float64Array.from([0.1, 0.7, 1.3, 2, 3.3]), weights: null };
+    const y = { n: 5, d: 1, data: Float64Array.from([10, 11.5, 12, 13.25, 20]), weights: null };
+    const map = await fitMap('quantile', x, y, {}, { columns: ['x'] });
+    const lines = ['note,x'];
+    for (let i = 0; i < 60000; i++) lines.push(`"\u00e9t\u00e9 ${i}, \u4e2d",${(i % 331) / 100}`);
+    const text = lines.join('\n') + '\n';
+    const fast = mapTable(scanNumericBytes(Buffer.from(text, 'utf8'), 'f.csv')!, map, 'apply');
+    const pieces: Uint8Array[] = [];
+    fast!.write((p) => pieces.push(p));
+    expect(pieces.length).toBeGreaterThan(1);
+    expect(Buffer.concat(pieces).toString('utf8')).toBe(await generalApply(text, map, ['x']));
     map.dispose();
   });
 
