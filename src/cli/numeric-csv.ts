@@ -33,7 +33,6 @@ export interface NumericTable {
 }
 
 const POW10 = [1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
-const TWO53 = 9007199254740992;
 const COMMA = 44;
 const POINT = 46;
 const LF = 10;
@@ -162,10 +161,17 @@ function classify(a: number, b: number, quoted: boolean): void {
     neg = c === 45;
     p++;
   }
+  // The digits as m * 10^nl + ml: m takes them while it stays below 9e14 (so below 2^53 with one more digit), ml the rest.
   let m = 0;
+  let ml = 0;
+  let nl = 0;
   const intStart = p;
   while (p < b && (c = buf[p]) >= 48 && c <= 57) {
-    m = m * 10 + (c - 48);
+    if (m < 9e14) m = m * 10 + (c - 48);
+    else {
+      ml = ml * 10 + (c - 48);
+      nl++;
+    }
     p++;
   }
   const intDigits = p - intStart;
@@ -176,7 +182,11 @@ function classify(a: number, b: number, quoted: boolean): void {
     p++;
     const fracStart = p;
     while (p < b && (c = buf[p]) >= 48 && c <= 57) {
-      m = m * 10 + (c - 48);
+      if (m < 9e14) m = m * 10 + (c - 48);
+    else {
+      ml = ml * 10 + (c - 48);
+      nl++;
+    }
       p++;
     }
     fracDigits = p - fracStart;
@@ -206,15 +216,72 @@ function classify(a: number, b: number, quoted: boolean): void {
   // Exact when the digits make an integer below 2^53 and the power of ten is exact (at most 1e22):
   // one correctly rounded product or quotient of two exact doubles is the correctly rounded decimal,
   // which is what Number() gives. (Clinger, "How to read floating point numbers accurately", PLDI 1990.)
-  // The digits are summed in doubles; once a partial sum passes 2^53 the final one does too.
-  let v: number;
-  if (m < TWO53 && e10 >= -22 && e10 <= 22) {
-    v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
-    if (neg) v = -v;
-  } else if (markAt >= 0 && buf[markAt] === COMMA) v = Number(buf.toString('latin1', a, markAt) + '.' + buf.toString('latin1', markAt + 1, b));
-  else v = Number(buf.toString('latin1', a, b));
+  // Up to 20 digits (the 17 of a double's shortest form, say), toDecimal below, or else Number() itself.
+  let v = NaN;
+  if (e10 >= -22 && e10 <= 22) {
+    if (nl === 0) {
+      v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
+      if (neg) v = -v;
+    } else if (nl <= 4) {
+      v = toDecimal(m, ml, POW10[nl], e10);
+      if (neg) v = -v;
+    }
+  }
+  if (v !== v) {
+    if (markAt >= 0 && buf[markAt] === COMMA) v = Number(buf.toString('latin1', a, markAt) + '.' + buf.toString('latin1', markAt + 1, b));
+    else v = Number(buf.toString('latin1', a, b));
+  }
   value = v;
   kind = v - v === 0 ? NUMBER : NON_FINITE;
+}
+
+const SPLIT = 134217729; // 2^27 + 1, Dekker's splitting constant
+/** The double-double error of the last twoProd: a * b = product + tpErr exactly. */
+let tpErr = 0;
+
+/** a * b rounded, leaving the exact rounding error in tpErr (Dekker, "A floating-point technique for extending the available precision", 1971). */
+function twoProd(a: number, b: number): number {
+  const p = a * b;
+  let t = SPLIT * a;
+  const ah = t - (t - a);
+  const al = a - ah;
+  t = SPLIT * b;
+  const bh = t - (t - b);
+  const bl = b - bh;
+  tpErr = ah * bh - p + ah * bl + al * bh + al * bl;
+  return p;
+}
+
+/**
+ * The double nearest to (m * scale + ml) * 10^e10, for m < 2^53, scale = 10^nl (nl 1..4), ml < scale and |e10| <= 22, or NaN
+ * when it cannot be sure. The integer is held exactly as a pair of doubles (hi + lo, 106 bits, it needs at most 67); one
+ * product or quotient by the exact power of ten in pair arithmetic gives the value to about 2^-100 of itself, A + B.
+ * The nearest double to A + B is the answer unless the true value and A + B lie on either side of a rounding boundary:
+ * so A + B is moved by 2^-90 of itself either way, far more than its error, and when both still round to the same
+ * double that is the answer; otherwise (a value within 2^-90 of a tie, rare) NaN, and the caller asks Number().
+ */
+function toDecimal(m: number, ml: number, scale: number, e10: number): number {
+  // hi + lo = m * scale + ml exactly: the product is exact as a pair, and the small integers add exactly.
+  const ph = twoProd(m, scale);
+  const s = ph + ml;
+  const t = ml - (s - ph) + tpErr;
+  const hi = s + t;
+  const lo = t - (hi - s);
+  let A: number;
+  let B: number;
+  if (e10 >= 0) {
+    const p = POW10[e10];
+    A = twoProd(hi, p);
+    B = tpErr + lo * p;
+  } else {
+    const q = POW10[-e10];
+    A = hi / q;
+    const p1 = twoProd(A, q);
+    B = (hi - p1 - tpErr + lo) / q;
+  }
+  const v = A + B;
+  const margin = Math.abs(A) * 8.077935669463161e-28; // 2^-90
+  return A + (B + margin) === v && A + (B - margin) === v ? v : NaN;
 }
 
 function generic(field: string): void {

@@ -119,6 +119,24 @@ describe('typed-array CSV reader (reads what parseCSV + csvCell read)', () => {
     );
   });
 
+  test('numbers of 16 to 20 digits, and ties between two doubles, read as Number() reads them', () => {
+    // Source: Number() (ECMAScript StringToNumber: the nearest double, ties to even) for every value.
+    // 2^53 + 1 = 9007199254740993 lies halfway between 2^53 and 2^53 + 2 (IEEE 754 binary64: 53-bit significand).
+    const ties = ['9007199254740993', '9007199254740995', '90071992547409930', '900719925474099300e-2', '9007199254740992.5', '4503599627370496.5'];
+    const nearTies = ['9007199254740993.0000001', '9007199254740992.9999999', '1.7976931348623157e22', '12345678901234567890e-22', '98765432109876543210e22'];
+    const digits = fc.stringMatching(/^[0-9]{16,20}$/);
+    const strings = fc.tuple(digits, fc.integer({ min: 0, max: 20 }), fc.integer({ min: -30, max: 30 }), fc.boolean()).map(([d, point, exp, neg]) => {
+      const at = Math.min(point, d.length);
+      return `${neg ? '-' : ''}${d.slice(0, at)}${at < d.length ? '.' + d.slice(at) : ''}${exp !== 0 ? 'e' + exp : ''}`;
+    });
+    const random = fc.sample(strings, { seed: 17, numRuns: 20000 });
+    const all = [...ties, ...nearTies, ...random];
+    const t = scanNumericCSV('x\n' + all.join('\n') + '\n', 'f.csv')!;
+    all.forEach((s, i) => {
+      if (!Object.is(t.values[0][i], Number(s))) throw new Error(`${s}: read ${t.values[0][i]}, Number() gives ${Number(s)}`);
+    });
+  });
+
   test('random numbers written by String() read back bit-identical, as Number() reads them', () => {
     fc.assert(
       fc.property(fc.array(fc.double(), { minLength: 1, maxLength: 50 }), (xs) => {
