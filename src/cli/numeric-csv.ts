@@ -62,12 +62,13 @@ let value = 0;
  * bytes alone gives the characters that decoding the whole file gives there.
  */
 function readField(i: number, n: number): number {
-  if (i < n && buf[i] === QUOTE) {
+  const bytes = buf;
+  if (i < n && bytes[i] === QUOTE) {
     fieldQuoted = true;
     // The usual quoted field: "...", no quote inside, then a separator, a line end or the end.
-    const j = buf.indexOf(QUOTE, i + 1);
+    const j = bytes.indexOf(QUOTE, i + 1);
     if (j < 0) return -1;
-    const after = j + 1 < n ? buf[j + 1] : SEP;
+    const after = j + 1 < n ? bytes[j + 1] : SEP;
     if (after === SEP || after === LF || after === CR) {
       fieldStr = null;
       fieldA = i + 1;
@@ -80,11 +81,11 @@ function readField(i: number, n: number): number {
     i++;
     let a = i;
     while (i < n) {
-      const c = buf[i];
+      const c = bytes[i];
       if (quoted) {
         if (c === QUOTE) {
-          field += buf.toString('utf8', a, i);
-          if (buf[i + 1] === QUOTE) {
+          field += bytes.toString('utf8', a, i);
+          if (bytes[i + 1] === QUOTE) {
             field += '"';
             i += 2;
             a = i;
@@ -106,14 +107,14 @@ function readField(i: number, n: number): number {
       else i++;
     }
     if (quoted) return -1;
-    field += buf.toString('utf8', a, i);
+    field += bytes.toString('utf8', a, i);
     fieldStr = field;
     return i;
   }
   fieldQuoted = false;
   const a = i;
   while (i < n) {
-    const c = buf[i];
+    const c = bytes[i];
     if (c === SEP || c === LF || c === CR) break;
     i++;
   }
@@ -143,10 +144,11 @@ function fieldText(): string {
  * number with a point as it is, and csvCell reads it); a quoted field only a point.
  */
 function classify(a: number, b: number, quoted: boolean): void {
+  const bytes = buf;
   const a0 = a;
   const b0 = b;
-  while (a < b && isSpace(buf[a])) a++;
-  while (b > a && isSpace(buf[b - 1])) b--;
+  while (a < b && isSpace(bytes[a])) a++;
+  while (b > a && isSpace(bytes[b - 1])) b--;
   if (a === b) {
     kind = BLANK;
     value = 0;
@@ -155,7 +157,7 @@ function classify(a: number, b: number, quoted: boolean): void {
   const mark = commaDecimal && !quoted ? COMMA : POINT;
   // /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/, the syntax csvCell accepts
   let p = a;
-  let c = buf[p];
+  let c = bytes[p];
   let neg = false;
   if (c === 43 || c === 45) {
     neg = c === 45;
@@ -166,7 +168,7 @@ function classify(a: number, b: number, quoted: boolean): void {
   let ml = 0;
   let nl = 0;
   const intStart = p;
-  while (p < b && (c = buf[p]) >= 48 && c <= 57) {
+  while (p < b && (c = bytes[p]) >= 48 && c <= 57) {
     if (m < 9e14) m = m * 10 + (c - 48);
     else {
       ml = ml * 10 + (c - 48);
@@ -177,11 +179,11 @@ function classify(a: number, b: number, quoted: boolean): void {
   const intDigits = p - intStart;
   let fracDigits = 0;
   let markAt = -1;
-  if (p < b && ((c = buf[p]) === POINT || c === mark)) {
+  if (p < b && ((c = bytes[p]) === POINT || c === mark)) {
     markAt = p;
     p++;
     const fracStart = p;
-    while (p < b && (c = buf[p]) >= 48 && c <= 57) {
+    while (p < b && (c = bytes[p]) >= 48 && c <= 57) {
       if (m < 9e14) m = m * 10 + (c - 48);
     else {
       ml = ml * 10 + (c - 48);
@@ -193,16 +195,16 @@ function classify(a: number, b: number, quoted: boolean): void {
   }
   let ok = intDigits + fracDigits > 0;
   let e10 = -fracDigits;
-  if (ok && p < b && ((c = buf[p]) === 101 || c === 69)) {
+  if (ok && p < b && ((c = bytes[p]) === 101 || c === 69)) {
     p++;
     let eneg = false;
-    if (p < b && ((c = buf[p]) === 43 || c === 45)) {
+    if (p < b && ((c = bytes[p]) === 43 || c === 45)) {
       eneg = c === 45;
       p++;
     }
     const expStart = p;
     let e = 0;
-    while (p < b && (c = buf[p]) >= 48 && c <= 57) {
+    while (p < b && (c = bytes[p]) >= 48 && c <= 57) {
       if (e < 1e6) e = e * 10 + (c - 48);
       p++;
     }
@@ -210,7 +212,7 @@ function classify(a: number, b: number, quoted: boolean): void {
     e10 += eneg ? -e : e;
   }
   if (!ok || p !== b) {
-    generic(asStandard(buf.toString('utf8', a0, b0), quoted));
+    generic(asStandard(bytes.toString('utf8', a0, b0), quoted));
     return;
   }
   // Exact when the digits make an integer below 2^53 and the power of ten is exact (at most 1e22):
@@ -228,8 +230,8 @@ function classify(a: number, b: number, quoted: boolean): void {
     }
   }
   if (v !== v) {
-    if (markAt >= 0 && buf[markAt] === COMMA) v = Number(buf.toString('latin1', a, markAt) + '.' + buf.toString('latin1', markAt + 1, b));
-    else v = Number(buf.toString('latin1', a, b));
+    if (markAt >= 0 && bytes[markAt] === COMMA) v = Number(bytes.toString('latin1', a, markAt) + '.' + bytes.toString('latin1', markAt + 1, b));
+    else v = Number(bytes.toString('latin1', a, b));
   }
   value = v;
   kind = v - v === 0 ? NUMBER : NON_FINITE;
