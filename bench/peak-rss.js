@@ -1,3 +1,14 @@
 'use strict';
-// Preloaded by bench/cli.bench.ts into each `remap` process: prints the peak resident memory (KB) on exit.
-process.on('exit', () => process.stderr.write(`peak-rss ${process.resourceUsage().maxRSS}\n`));
+// Preloaded by bench/cli.bench.ts into each `remap` process: prints the peak resident memory (KB) on exit. Linux's VmHWM is
+// this process's own peak; maxRSS can carry the peak of the process that started it (fork keeps it across exec).
+const fs = require('fs');
+process.on('exit', () => {
+  let kb = process.resourceUsage().maxRSS;
+  try {
+    const m = /VmHWM:\s*(\d+) kB/.exec(fs.readFileSync('/proc/self/status', 'utf8'));
+    if (m) kb = Number(m[1]);
+  } catch {
+    // not Linux: maxRSS it is
+  }
+  process.stderr.write(`peak-rss ${kb}\n`);
+});

@@ -87,6 +87,17 @@ main(process.argv.slice(2), {
   stderr: out(process.stderr),
   readFile: (p) => fs.readFileSync(p, 'utf8'),
   writeFile: (p, t) => fs.writeFileSync(p, t),
+  readBytes: (p) => fs.readFileSync(p),
+  openOut: (p) => {
+    if (p === null) return { write: (chunk) => process.stdout.write(chunk), close: () => {} };
+    const fd = fs.openSync(p, 'w');
+    return {
+      write: (chunk) => {
+        for (let at = 0; at < chunk.length;) at += fs.writeSync(fd, chunk, at, chunk.length - at);
+      },
+      close: () => fs.closeSync(fd),
+    };
+  },
 }).then(
   (code) => {
     process.exitCode = code;

@@ -8,11 +8,11 @@ import { parseSettingsText } from '../engine/settings';
 import { CellError, type CellIn } from '../input/cells';
 import { readSample, readValues, writeValues, type ReadSample } from '../input/coerce';
 import { csvCell, formatCSV, parseCSV } from './csv';
-import { scanNumericCSV } from './numeric-csv';
+import { scanNumericBytes, scanNumericCSV } from './numeric-csv';
 import { mapTable } from './numeric-map-file';
 import { sampleFromTable } from './numeric-sample';
 import { CommandUsageError, MORE_COMMANDS, runMoreCommand } from './more-commands';
-import { DIALECT_FLAGS, MOMENT_FLAGS, route, SQL_FLAGS, SQL_SUMMARY } from './route';
+import { DIALECT_FLAGS, MOMENT_FLAGS, route, SQL_FLAGS, SQL_SUMMARY, type RouteIO } from './route';
 
 /**
  * The `remap` command: CSV in, CSV or JSON out, through the same coercion
@@ -21,12 +21,7 @@ import { DIALECT_FLAGS, MOMENT_FLAGS, route, SQL_FLAGS, SQL_SUMMARY } from './ro
  * Exit codes: 0 done, 1 bad input or data (one line on stderr), 2 bad usage.
  */
 
-export interface CliIO {
-  readonly stdout: (s: string) => void;
-  readonly stderr: (s: string) => void;
-  readonly readFile: (path: string) => string;
-  readonly writeFile: (path: string, text: string) => void;
-}
+export type CliIO = RouteIO;
 
 class UsageError extends Error {}
 
@@ -101,6 +96,7 @@ function readText(io: CliIO, path: string): string {
   try {
     return io.readFile(path);
   } catch (e) {
+    if (isRemapError(e)) throw e; // the file was read, but not as CSV (a quote that never ends)
     throw new RemapError(`cannot read ${path} (${(e as NodeJS.ErrnoException).code ?? (e as Error).message}); check the path.`);
   }
 }
@@ -148,12 +144,12 @@ function dataColumns(t: Table, columns: string | undefined, exclude: number[]): 
 }
 
 function readSide(io: CliIO, path: string, name: 'source' | 'target', flags: Record<string, string>, fn: string): ReadSample & { header: string[] } {
-  const text = readText(io, path);
   const wFlag = flags[`${name}-weights`];
-  const table = scanNumericCSV(text, path);
+  const input = io.readInput?.(path);
+  const table = input ? scanNumericBytes(input.bytes, path, input.dialect) : scanNumericCSV(readText(io, path), path);
   const fast = table && sampleFromTable(table, { columns: flags.columns, weights: wFlag });
   if (fast) return fast;
-  const t = readTable(path, text);
+  const t = readTable(path, readText(io, path));
   const wk = wFlag !== undefined ? columnIndex(t, wFlag, `--${name}-weights`) : -1;
   const cols = dataColumns(t, flags.columns, wk >= 0 ? [wk] : []);
   const cells = t.rows.map((r) => cols.map((k) => r[k]));
@@ -252,14 +248,45 @@ function mapCells(map: TransportMap, t: Table, command: 'apply' | 'invert'): { c
 function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'invert'): void {
   const map = loadModel(io, need(flags, 'model', command));
   const inputPath = need(flags, 'input', command);
-  const text = readText(io, inputPath);
-  const table = scanNumericCSV(text, inputPath);
-  const { csv, mapped } = (table && mapTable(table, map, command)) ?? mapCells(map, readTable(inputPath, text), command);
-  if (flags.out) io.writeFile(flags.out, csv);
-  else io.stdout(csv);
+  const input = io.readInput?.(inputPath);
+  const table = input ? scanNumericBytes(input.bytes, inputPath, input.dialect) : scanNumericCSV(readText(io, inputPath), inputPath);
+  const fast = table && mapTable(table, map, command);
+  let mapped: Mapped;
+  if (fast) {
+    mapped = fast.mapped;
+    writeInPieces(io, flags.out, fast.write);
+  } else {
+    const general = mapCells(map, readTable(inputPath, readText(io, inputPath)), command);
+    mapped = general.mapped;
+    if (flags.out) io.writeFile(flags.out, general.csv);
+    else io.stdout(general.csv);
+  }
   // This call's own rows outside the fitted range, worded by what the method does there (not by the tails setting alone).
   const outside = extrapolationWarning(map, mapped, command);
   if (outside) io.stderr(`remap: warning: ${oneLine(outside.message)} ${outside.action}\n`);
+}
+
+/** Writes output made in pieces to --out (or stdout): piece by piece where the IO can, else joined once. */
+function writeInPieces(io: CliIO, out: string | undefined, write: (sink: (chunk: Uint8Array) => void) => void): void {
+  if (io.openOut) {
+    let file;
+    try {
+      file = io.openOut(out ?? null);
+    } catch (e) {
+      throw new RemapError(`cannot write ${out} (${(e as NodeJS.ErrnoException).code ?? (e as Error).message}); check the path.`);
+    }
+    try {
+      write(file.write);
+    } finally {
+      file.close();
+    }
+    return;
+  }
+  const pieces: Uint8Array[] = [];
+  write((chunk) => pieces.push(chunk));
+  const text = Buffer.concat(pieces).toString('utf8');
+  if (out) io.writeFile(out, text);
+  else io.stdout(text);
 }
 
 /** A message on one line: names read from files (quoted CSV headers) may hold line breaks. */

@@ -33,71 +33,89 @@ export interface NumericTable {
 }
 
 const POW10 = [1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
-const TWO53 = 9007199254740992;
 const COMMA = 44;
+const POINT = 46;
 const LF = 10;
 const CR = 13;
 const QUOTE = 34;
+/** The pattern dialect.ts rewrites with a decimal point (an unquoted number written with a decimal comma). */
+const COMMA_NUMBER = /^\s*[+-]?(\d+,?\d*|,\d+)([eE][+-]?\d+)?\s*$/;
+/** A lone UTF-16 surrogate: such text has no UTF-8 bytes that read back the same. */
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 
-// The field just read: a range of the text, or (for quoted fields that need unescaping) a string.
+// The file being read and its dialect.
+let buf: Buffer = Buffer.alloc(0);
+let SEP = COMMA;
+let commaDecimal = false;
+// The field just read: a range of the bytes, or (for quoted fields that need unescaping) a string.
 let fieldStr: string | null = null;
 let fieldA = 0;
 let fieldB = 0;
+let fieldQuoted = false;
 // The field just classified.
 let kind = BLANK;
 let value = 0;
 
-/** Reads one field starting at i; returns where it stops (a comma, a line end or the end), or -1 for a quote that never ends. */
-function readField(text: string, i: number, n: number): number {
-  if (i < n && text.charCodeAt(i) === QUOTE) {
+/**
+ * Reads one field starting at i; returns where it stops (a separator, a line end or the end), or -1 for a quote that never ends.
+ * Every byte that ends or splits a field is ASCII, and no byte of a multi-byte UTF-8 character is, so decoding a field's
+ * bytes alone gives the characters that decoding the whole file gives there.
+ */
+function readField(i: number, n: number): number {
+  const bytes = buf;
+  if (i < n && bytes[i] === QUOTE) {
+    fieldQuoted = true;
     // The usual quoted field: "...", no quote inside, then a separator, a line end or the end.
-    const j = text.indexOf('"', i + 1);
+    const j = bytes.indexOf(QUOTE, i + 1);
     if (j < 0) return -1;
-    const after = j + 1 < n ? text.charCodeAt(j + 1) : COMMA;
-    if (after === COMMA || after === LF || after === CR) {
+    const after = j + 1 < n ? bytes[j + 1] : SEP;
+    if (after === SEP || after === LF || after === CR) {
       fieldStr = null;
       fieldA = i + 1;
       fieldB = j;
       return j + 1;
     }
-    // Anything else (doubled quotes, text after the closing quote): the rules of parseCSV, character by character.
+    // Anything else (doubled quotes, text after the closing quote): the rules of parseCSV, piece by piece.
     let field = '';
     let quoted = true;
     i++;
+    let a = i;
     while (i < n) {
-      const c = text.charCodeAt(i);
+      const c = bytes[i];
       if (quoted) {
         if (c === QUOTE) {
-          if (text.charCodeAt(i + 1) === QUOTE) {
+          field += bytes.toString('utf8', a, i);
+          if (bytes[i + 1] === QUOTE) {
             field += '"';
             i += 2;
+            a = i;
             continue;
           }
           quoted = false;
           i++;
+          a = i;
           continue;
         }
-        field += text[i];
         i++;
         continue;
       }
-      if (c === QUOTE && field === '') {
+      if (c === QUOTE && field === '' && a === i) {
         quoted = true;
         i++;
-      } else if (c === COMMA || c === LF || c === CR) break;
-      else {
-        field += text[i];
-        i++;
-      }
+        a = i;
+      } else if (c === SEP || c === LF || c === CR) break;
+      else i++;
     }
     if (quoted) return -1;
+    field += bytes.toString('utf8', a, i);
     fieldStr = field;
     return i;
   }
+  fieldQuoted = false;
   const a = i;
   while (i < n) {
-    const c = text.charCodeAt(i);
-    if (c === COMMA || c === LF || c === CR) break;
+    const c = bytes[i];
+    if (c === SEP || c === LF || c === CR) break;
     i++;
   }
   fieldStr = null;
@@ -110,54 +128,83 @@ function isSpace(c: number): boolean {
   return c === 32 || (c >= 9 && c <= 13);
 }
 
-/** What csvCell would make of s.slice(a, b), and the generic reading for anything but plain ASCII numbers. */
-function classify(s: string, a: number, b: number): void {
+/** A field as the comma-separated, decimal-point text dialect.ts makes of it (an unquoted decimal comma becomes a point). */
+function asStandard(field: string, quoted: boolean): string {
+  return commaDecimal && !quoted && COMMA_NUMBER.test(field) ? field.replace(',', '.') : field;
+}
+
+/** The field just read as a string, as written (unquoted, not trimmed, not rewritten). */
+function fieldText(): string {
+  return fieldStr ?? buf.toString('utf8', fieldA, fieldB);
+}
+
+/**
+ * What csvCell would make of the bytes a..b (after dialect.ts, for another dialect), and the generic reading for anything
+ * but plain ASCII numbers. An unquoted field may use the decimal comma of its dialect or a point (dialect.ts leaves a
+ * number with a point as it is, and csvCell reads it); a quoted field only a point.
+ */
+function classify(a: number, b: number, quoted: boolean): void {
+  const bytes = buf;
   const a0 = a;
   const b0 = b;
-  while (a < b && isSpace(s.charCodeAt(a))) a++;
-  while (b > a && isSpace(s.charCodeAt(b - 1))) b--;
+  while (a < b && isSpace(bytes[a])) a++;
+  while (b > a && isSpace(bytes[b - 1])) b--;
   if (a === b) {
     kind = BLANK;
     value = 0;
     return;
   }
+  const mark = commaDecimal && !quoted ? COMMA : POINT;
   // /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/, the syntax csvCell accepts
   let p = a;
-  let c = s.charCodeAt(p);
+  let c = bytes[p];
   let neg = false;
   if (c === 43 || c === 45) {
     neg = c === 45;
     p++;
   }
+  // The digits as m * 10^nl + ml: m takes them while it stays below 9e14 (so below 2^53 with one more digit), ml the rest.
   let m = 0;
+  let ml = 0;
+  let nl = 0;
   const intStart = p;
-  while (p < b && (c = s.charCodeAt(p)) >= 48 && c <= 57) {
-    m = m * 10 + (c - 48);
+  while (p < b && (c = bytes[p]) >= 48 && c <= 57) {
+    if (m < 9e14) m = m * 10 + (c - 48);
+    else {
+      ml = ml * 10 + (c - 48);
+      nl++;
+    }
     p++;
   }
   const intDigits = p - intStart;
   let fracDigits = 0;
-  if (p < b && s.charCodeAt(p) === 46) {
+  let markAt = -1;
+  if (p < b && ((c = bytes[p]) === POINT || c === mark)) {
+    markAt = p;
     p++;
     const fracStart = p;
-    while (p < b && (c = s.charCodeAt(p)) >= 48 && c <= 57) {
-      m = m * 10 + (c - 48);
+    while (p < b && (c = bytes[p]) >= 48 && c <= 57) {
+      if (m < 9e14) m = m * 10 + (c - 48);
+    else {
+      ml = ml * 10 + (c - 48);
+      nl++;
+    }
       p++;
     }
     fracDigits = p - fracStart;
   }
   let ok = intDigits + fracDigits > 0;
   let e10 = -fracDigits;
-  if (ok && p < b && ((c = s.charCodeAt(p)) === 101 || c === 69)) {
+  if (ok && p < b && ((c = bytes[p]) === 101 || c === 69)) {
     p++;
     let eneg = false;
-    if (p < b && ((c = s.charCodeAt(p)) === 43 || c === 45)) {
+    if (p < b && ((c = bytes[p]) === 43 || c === 45)) {
       eneg = c === 45;
       p++;
     }
     const expStart = p;
     let e = 0;
-    while (p < b && (c = s.charCodeAt(p)) >= 48 && c <= 57) {
+    while (p < b && (c = bytes[p]) >= 48 && c <= 57) {
       if (e < 1e6) e = e * 10 + (c - 48);
       p++;
     }
@@ -165,20 +212,78 @@ function classify(s: string, a: number, b: number): void {
     e10 += eneg ? -e : e;
   }
   if (!ok || p !== b) {
-    generic(s.slice(a0, b0));
+    generic(asStandard(bytes.toString('utf8', a0, b0), quoted));
     return;
   }
   // Exact when the digits make an integer below 2^53 and the power of ten is exact (at most 1e22):
   // one correctly rounded product or quotient of two exact doubles is the correctly rounded decimal,
   // which is what Number() gives. (Clinger, "How to read floating point numbers accurately", PLDI 1990.)
-  // The digits are summed in doubles; once a partial sum passes 2^53 the final one does too.
-  let v: number;
-  if (m < TWO53 && e10 >= -22 && e10 <= 22) {
-    v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
-    if (neg) v = -v;
-  } else v = Number(s.slice(a, b));
+  // Up to 20 digits (the 17 of a double's shortest form, say), toDecimal below, or else Number() itself.
+  let v = NaN;
+  if (e10 >= -22 && e10 <= 22) {
+    if (nl === 0) {
+      v = e10 < 0 ? m / POW10[-e10] : m * POW10[e10];
+      if (neg) v = -v;
+    } else if (nl <= 4) {
+      v = toDecimal(m, ml, POW10[nl], e10);
+      if (neg) v = -v;
+    }
+  }
+  if (v !== v) {
+    if (markAt >= 0 && bytes[markAt] === COMMA) v = Number(bytes.toString('latin1', a, markAt) + '.' + bytes.toString('latin1', markAt + 1, b));
+    else v = Number(bytes.toString('latin1', a, b));
+  }
   value = v;
   kind = v - v === 0 ? NUMBER : NON_FINITE;
+}
+
+const SPLIT = 134217729; // 2^27 + 1, Dekker's splitting constant
+/** The double-double error of the last twoProd: a * b = product + tpErr exactly. */
+let tpErr = 0;
+
+/** a * b rounded, leaving the exact rounding error in tpErr (Dekker, "A floating-point technique for extending the available precision", 1971). */
+function twoProd(a: number, b: number): number {
+  const p = a * b;
+  let t = SPLIT * a;
+  const ah = t - (t - a);
+  const al = a - ah;
+  t = SPLIT * b;
+  const bh = t - (t - b);
+  const bl = b - bh;
+  tpErr = ah * bh - p + ah * bl + al * bh + al * bl;
+  return p;
+}
+
+/**
+ * The double nearest to (m * scale + ml) * 10^e10, for m < 2^53, scale = 10^nl (nl 1..4), ml < scale and |e10| <= 22, or NaN
+ * when it cannot be sure. The integer is held exactly as a pair of doubles (hi + lo, 106 bits, it needs at most 67); one
+ * product or quotient by the exact power of ten in pair arithmetic gives the value to about 2^-100 of itself, A + B.
+ * The nearest double to A + B is the answer unless the true value and A + B lie on either side of a rounding boundary:
+ * so A + B is moved by 2^-90 of itself either way, far more than its error, and when both still round to the same
+ * double that is the answer; otherwise (a value within 2^-90 of a tie, rare) NaN, and the caller asks Number().
+ */
+function toDecimal(m: number, ml: number, scale: number, e10: number): number {
+  // hi + lo = m * scale + ml exactly: the product is exact as a pair, and the small integers add exactly.
+  const ph = twoProd(m, scale);
+  const s = ph + ml;
+  const t = ml - (s - ph) + tpErr;
+  const hi = s + t;
+  const lo = t - (hi - s);
+  let A: number;
+  let B: number;
+  if (e10 >= 0) {
+    const p = POW10[e10];
+    A = twoProd(hi, p);
+    B = tpErr + lo * p;
+  } else {
+    const q = POW10[-e10];
+    A = hi / q;
+    const p1 = twoProd(A, q);
+    B = (hi - p1 - tpErr + lo) / q;
+  }
+  const v = A + B;
+  const margin = Math.abs(A) * 8.077935669463161e-28; // 2^-90
+  return A + (B + margin) === v && A + (B - margin) === v ? v : NaN;
 }
 
 function generic(field: string): void {
@@ -195,36 +300,69 @@ function generic(field: string): void {
   }
 }
 
+/** How the file separates fields and writes decimals (the shape of dialect.ts's Dialect). */
+export interface ScanDialect {
+  readonly delimiter: string;
+  readonly decimal: string;
+}
+
+const STANDARD: ScanDialect = { delimiter: ',', decimal: '.' };
+
 /**
- * Reads comma-separated text (a header line, then rows) into columns.
- * Cost: O(length), one pass; memory: 9 bytes per cell (a double and a kind) plus the text fields.
+ * Reads comma-separated text (a header line, then rows) into columns: the text's UTF-8 bytes through `scanNumericBytes`.
  * @returns the table, or null when the general reader must read it (see the top of this file).
  * @example scanNumericCSV('x,y\n1,a\n,2\n', 'f.csv') // header ['x', 'y'], rows 2, x: 1 then blank, y: text 'a' then 2
  */
-export function scanNumericCSV(text: string, name: string): NumericTable | null {
-  const n = text.length;
-  let pos = n > 0 && text.charCodeAt(0) === 0xfeff ? 1 : 0;
+export function scanNumericCSV(text: string, name: string, dialect: ScanDialect = STANDARD): NumericTable | null {
+  if (LONE_SURROGATE.test(text)) return null;
+  return scanNumericBytes(Buffer.from(text, 'utf8'), name, dialect);
+}
+
+/**
+ * Reads a delimited file's bytes (UTF-8; a header line, then rows) into columns, in one pass, without decoding the file:
+ * numbers are read from their ASCII digits, and only header names and text fields are decoded. For a dialect other than
+ * comma and decimal point it reads what dialect.ts's `toStandardCSV` followed by `scanNumericCSV` reads, without
+ * rewriting the text first. Cost: O(length), one pass; memory: 9 bytes per cell (a double and a kind) plus the text fields.
+ * @param dialect the separator (',', ';' or a tab) and decimal mark ('.' or ',', a comma only with another separator).
+ * @returns the table, or null when the general reader must read it (see the top of this file).
+ * @example scanNumericBytes(Buffer.from('x;y\n1,5;a\n'), 'f.csv', { delimiter: ';', decimal: ',' }) // header ['x', 'y'], x: 1.5, y: text 'a'
+ */
+export function scanNumericBytes(bytes: Uint8Array, name: string, dialect: ScanDialect = STANDARD): NumericTable | null {
+  buf = Buffer.isBuffer(bytes) ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
+  SEP = dialect.delimiter.charCodeAt(0);
+  commaDecimal = dialect.decimal === ',' && SEP !== COMMA;
+  try {
+    return scan(name);
+  } finally {
+    buf = Buffer.alloc(0);
+  }
+}
+
+function scan(name: string): NumericTable | null {
+  const n = buf.length;
+  let pos = n >= 3 && buf[0] === 0xef && buf[1] === 0xbb && buf[2] === 0xbf ? 3 : 0;
   const header: string[] = [];
   let headerEmpty = true;
   for (;;) {
-    const end = readField(text, pos, n);
+    const end = readField(pos, n);
     if (end < 0) return null;
-    const raw = fieldStr ?? text.slice(fieldA, fieldB);
+    const raw = asStandard(fieldText(), fieldQuoted);
     if (raw !== '') headerEmpty = false;
     header.push(raw.trim());
     pos = end;
     if (pos >= n) break;
-    const c = text.charCodeAt(pos);
-    if (c === COMMA) {
+    const c = buf[pos];
+    if (c === SEP) {
       pos++;
       continue;
     }
-    pos += c === CR && text.charCodeAt(pos + 1) === LF ? 2 : 1;
+    pos += c === CR && buf[pos + 1] === LF ? 2 : 1;
     break;
   }
   if (new Set(header).size !== header.length) return null;
   const width = header.length;
   let cap = 1024;
+  const first = pos;
   let values = header.map(() => new Float64Array(cap));
   let kinds = header.map(() => new Uint8Array(cap));
   const texts: string[] = [];
@@ -233,7 +371,9 @@ export function scanNumericCSV(text: string, name: string): NumericTable | null 
   let shortEmpty = false;
   while (pos < n) {
     if (row === cap) {
-      cap *= 2;
+      // After the first rows, room for as many more as the rest of the file holds at their length, so the columns
+      // are copied about once (then doubling).
+      cap = row === 1024 ? Math.max(2 * cap, Math.ceil(((n - first) / (pos - first)) * 1.05 * row) + 1024) : 2 * cap;
       values = values.map((v) => {
         const g = new Float64Array(cap);
         g.set(v);
@@ -248,7 +388,7 @@ export function scanNumericCSV(text: string, name: string): NumericTable | null 
     let f = 0;
     let empty = true;
     for (;;) {
-      const end = readField(text, pos, n);
+      const end = readField(pos, n);
       if (end < 0) return null;
       if (f >= width) {
         // Too many fields: ragged, unless the line is empty and at the end (the general reader drops those first).
@@ -256,39 +396,36 @@ export function scanNumericCSV(text: string, name: string): NumericTable | null 
         f++;
         pos = end;
         if (pos >= n) break;
-        const c = text.charCodeAt(pos);
-        if (c === COMMA) {
+        const c = buf[pos];
+        if (c === SEP) {
           pos++;
           continue;
         }
-        pos += c === CR && text.charCodeAt(pos + 1) === LF ? 2 : 1;
+        pos += c === CR && buf[pos + 1] === LF ? 2 : 1;
         break;
       }
-      let s: string;
       if (fieldStr === null) {
-        s = text;
         if (fieldB > fieldA) empty = false;
-        classify(text, fieldA, fieldB);
+        classify(fieldA, fieldB, fieldQuoted);
       } else {
-        s = fieldStr;
-        if (s !== '') empty = false;
-        classify(s, 0, s.length);
+        if (fieldStr !== '') empty = false;
+        generic(fieldStr);
       }
       if (kind === TEXT) {
         value = texts.length;
-        texts.push(fieldStr === null ? s.slice(fieldA, fieldB) : s);
+        texts.push(fieldText());
       }
       values[f][row] = value;
       kinds[f][row] = kind;
       f++;
       pos = end;
       if (pos >= n) break;
-      const c = text.charCodeAt(pos);
-      if (c === COMMA) {
+      const c = buf[pos];
+      if (c === SEP) {
         pos++;
         continue;
       }
-      pos += c === CR && text.charCodeAt(pos + 1) === LF ? 2 : 1;
+      pos += c === CR && buf[pos + 1] === LF ? 2 : 1;
       break;
     }
     if (empty) {

@@ -2,20 +2,22 @@ import type { Mapped, TransportMap } from '../engine/map';
 import { quoteField } from './csv';
 import { BLANK, NUMBER, TEXT, type NumericTable } from './numeric-csv';
 
-/** Rows joined into one string at a time: large enough to be cheap, small enough not to hold a second copy of the output in pieces. */
-const CHUNK = 16384;
+/** Bytes written at a time: large enough to be cheap, small enough that the output is never held whole. */
+const PIECE = 1 << 20;
 
 /**
  * `remap apply` / `invert` on a table read by `scanNumericCSV`: maps the
  * columns the map knows and writes the whole file as CSV, as the general path
  * writes it (numbers in shortest round-trip form, String(x); other columns as
- * read; a blank to map stays blank). Cost: O(rows x columns) plus the map's.
- * @returns the CSV text and the mapped points, or null for what the general
+ * read; a blank to map stays blank). Cost: O(rows x columns) plus the map's;
+ * the output is written piece by piece, never held whole.
+ * @returns the mapped points and a function that writes the CSV (UTF-8) in pieces of about a megabyte to a sink, or null for what the general
  * path must handle or word as an error: columns that do not match the map,
  * no rows, text or non-finite numbers to map, a row with only some of its
  * cells blank, a result that is not finite.
  */
-export function mapTable(t: NumericTable, map: TransportMap, direction: 'apply' | 'invert'): { csv: string; mapped: Mapped } | null {
+export function mapTable(t: NumericTable, map: TransportMap, direction: 'apply' | 'invert',
+): { mapped: Mapped; write: (sink: (chunk: Uint8Array) => void) => void } | null {
   const names = map.diagnostics().columns;
   let cols: number[];
   if (names && names.every((c) => t.header.includes(c))) cols = names.map((c) => t.header.indexOf(c));
@@ -47,46 +49,76 @@ export function mapTable(t: NumericTable, map: TransportMap, direction: 'apply' 
   const mapped = direction === 'apply' ? map.apply(points) : map.invert(points);
   const out = mapped.data;
   for (let i = 0; i < n * d; i++) if (!Number.isFinite(out[i])) return null;
-  return { csv: formatMapped(t, cols, slots, out, d), mapped };
+  return { mapped, write: (sink) => formatMapped(t, cols, slots, out, d, new Pieces(sink)) };
 }
 
-function formatMapped(t: NumericTable, cols: number[], slots: Int32Array, out: Float64Array, d: number): string {
+/** Output bytes gathered into pieces; each piece is a new buffer, so a sink may keep it. */
+class Pieces {
+  private buf = Buffer.allocUnsafe(PIECE);
+  private at = 0;
+  constructor(private readonly sink: (chunk: Uint8Array) => void) {}
+
+  /** Text that is ASCII (numbers as String(x) writes them, separators). */
+  ascii(s: string): void {
+    const n = s.length;
+    if (this.at + n > PIECE) this.flush();
+    const buf = this.buf;
+    let at = this.at;
+    for (let i = 0; i < n; i++) buf[at++] = s.charCodeAt(i);
+    this.at = at;
+  }
+
+  byte(c: number): void {
+    if (this.at === PIECE) this.flush();
+    this.buf[this.at++] = c;
+  }
+
+  /** Any text, as UTF-8. */
+  text(s: string): void {
+    const n = Buffer.byteLength(s, 'utf8');
+    if (this.at + n > PIECE) this.flush();
+    if (n > PIECE) this.sink(Buffer.from(s, 'utf8'));
+    else this.at += this.buf.write(s, this.at, 'utf8');
+  }
+
+  flush(): void {
+    if (this.at === 0) return;
+    this.sink(this.buf.subarray(0, this.at));
+    this.buf = Buffer.allocUnsafe(PIECE);
+    this.at = 0;
+  }
+}
+
+const LF = 10;
+const COMMA = 44;
+
+function formatMapped(t: NumericTable, cols: number[], slots: Int32Array, out: Float64Array, d: number, w: Pieces): void {
   const width = t.header.length;
-  const chunks: string[] = [t.header.map(quoteField).join(',') + '\n'];
-  const lines: string[] = new Array(Math.min(CHUNK, t.rows));
-  let m = 0;
-  const flush = () => {
-    lines.length = m;
-    chunks.push(lines.join('\n') + '\n');
-    m = 0;
-  };
+  w.text(t.header.map(quoteField).join(',') + '\n');
   const mappedAt = new Int32Array(width).fill(-1);
   cols.forEach((k, j) => (mappedAt[k] = j));
   if (width === 1 && d === 1) {
     for (let i = 0; i < t.rows; i++) {
       const s = slots[i];
-      lines[m++] = s >= 0 ? String(out[s]) : '';
-      if (m === CHUNK) flush();
+      if (s >= 0) w.ascii(String(out[s]));
+      w.byte(LF);
     }
   } else {
     for (let i = 0; i < t.rows; i++) {
       const s = slots[i];
-      let line = '';
       for (let k = 0; k < width; k++) {
-        if (k > 0) line += ',';
+        if (k > 0) w.byte(COMMA);
         const j = mappedAt[k];
         if (j >= 0) {
-          if (s >= 0) line += String(out[s * d + j]);
+          if (s >= 0) w.ascii(String(out[s * d + j]));
         } else {
           const kind = t.kinds[k][i];
-          if (kind === TEXT) line += quoteField(t.texts[t.values[k][i]]);
-          else if (kind !== BLANK) line += String(t.values[k][i]);
+          if (kind === TEXT) w.text(quoteField(t.texts[t.values[k][i]]));
+          else if (kind !== BLANK) w.ascii(String(t.values[k][i]));
         }
       }
-      lines[m++] = line;
-      if (m === CHUNK) flush();
+      w.byte(LF);
     }
   }
-  if (m > 0) flush();
-  return chunks.join('');
+  w.flush();
 }

@@ -4,7 +4,7 @@ import { fitLinearFromMoments } from '../engine/linear/from-moments';
 import { parseMapJSON } from '../engine/map-json';
 import { parseSettingsText } from '../engine/settings';
 import { formatCSV } from './csv';
-import { describeDialect, dialectFrom, toStandardCSV } from './dialect';
+import { describeDialect, detectDialect, detectDialectBytes, dialectFrom, toStandardCSV, type Dialect } from './dialect';
 import { readDoubleColumns } from './duckdb-columns';
 import { readMomentsCSV } from './moments-csv';
 
@@ -14,7 +14,28 @@ export interface RouteIO {
   readonly stderr: (s: string) => void;
   readonly readFile: (path: string) => string;
   readonly writeFile: (path: string, text: string) => void;
+  /** A file's bytes, when the caller can give them: CSV is then read from its bytes, without decoding the whole file. */
+  readonly readBytes?: (path: string) => Uint8Array;
+  /** Opens a file (null: stdout) to write in pieces; without it, the pieces are joined and given to writeFile or stdout. */
+  readonly openOut?: (path: string | null) => OutFile;
+  /** Set by `route`: a CSV input's UTF-8 bytes and how it is written, for the typed-array reader. */
+  readonly readInput?: (path: string) => CsvInput | undefined;
 }
+
+/** A file open for writing in pieces. */
+export interface OutFile {
+  readonly write: (chunk: Uint8Array) => void;
+  readonly close: () => void;
+}
+
+/** A CSV input as read: its UTF-8 bytes and its dialect. */
+export interface CsvInput {
+  readonly bytes: Uint8Array;
+  readonly dialect: Dialect;
+}
+
+/** A lone UTF-16 surrogate: such text has no UTF-8 bytes that read back the same. */
+const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 
 /** Options of the commands this module adds or extends. */
 export const SQL_FLAGS = ['model', 'table', 'columns', 'direction', 'suffix', 'quote', 'out'];
@@ -39,24 +60,43 @@ export async function route(command: string, flags: Record<string, string>, io: 
   const files = ['source', 'target', 'input'].map((f) => flags[f]).filter((p): p is string => p !== undefined && p !== '');
   if (files.length === 0) return { io };
   const cache = new Map<string, string>();
+  // Each CSV input is read once, as bytes; the plain CSV text the general reader needs is made from them only when asked for.
+  const inputs = new Map<string, { bytes: Uint8Array | null; text: string | null; dialect: Dialect }>();
   for (const path of files) {
-    if (cache.has(path)) continue;
+    if (cache.has(path) || inputs.has(path)) continue;
     if (/\.parquet$/i.test(path)) {
       cache.set(path, await parquetAsCSV(path));
       io.stderr(`remap: read ${path} as Parquet (through DuckDB).\n`);
       continue;
     }
-    let text: string;
+    let bytes: Uint8Array | null = null;
+    let text: string | null = null;
     try {
-      text = io.readFile(path);
+      if (io.readBytes) bytes = io.readBytes(path);
+      else text = io.readFile(path);
     } catch {
       continue; // the command itself reports a file it cannot read
     }
-    const dialect = dialectFrom(flags.delimiter, flags.decimal, text);
+    if (bytes === null && !LONE_SURROGATE.test(text!)) bytes = Buffer.from(text!, 'utf8');
+    const dialect = dialectFrom(flags.delimiter, flags.decimal, bytes !== null ? detectDialectBytes(bytes) : detectDialect(text!));
     if (dialect.delimiter !== ',' || flags.delimiter !== undefined || flags.decimal !== undefined) io.stderr(`remap: read ${path} as ${describeDialect(dialect)}.\n`);
-    cache.set(path, toStandardCSV(text, dialect, path));
+    inputs.set(path, { bytes, text, dialect });
   }
-  return { io: { ...io, readFile: (p: string) => cache.get(p) ?? io.readFile(p) } };
+  const readFile = (p: string): string => {
+    const done = cache.get(p);
+    if (done !== undefined) return done;
+    const input = inputs.get(p);
+    if (!input) return io.readFile(p);
+    const text = input.text ?? Buffer.from(input.bytes!.buffer, input.bytes!.byteOffset, input.bytes!.byteLength).toString('utf8');
+    const standard = toStandardCSV(text, input.dialect, p);
+    cache.set(p, standard);
+    return standard;
+  };
+  const readInput = (p: string): CsvInput | undefined => {
+    const input = inputs.get(p);
+    return input && input.bytes !== null ? { bytes: input.bytes, dialect: input.dialect } : undefined;
+  };
+  return { io: { ...io, readFile, readInput } };
 }
 
 function need(flags: Record<string, string>, name: string, usage: string): string {

@@ -1,7 +1,8 @@
 import fc from 'fast-check';
 import { csvCell, formatCSV, parseCSV } from '../../src/cli/csv';
+import { toStandardCSV, type Dialect } from '../../src/cli/dialect';
 import { mapTable } from '../../src/cli/numeric-map-file';
-import { BLANK, NON_FINITE, NUMBER, scanNumericCSV, TEXT, type NumericTable } from '../../src/cli/numeric-csv';
+import { BLANK, NON_FINITE, NUMBER, scanNumericBytes, scanNumericCSV, TEXT, type NumericTable } from '../../src/cli/numeric-csv';
 import { sampleFromTable } from '../../src/cli/numeric-sample';
 import { fitMap } from '../../src/engine';
 import type { CellIn } from '../../src/input/cells';
@@ -118,6 +119,24 @@ describe('typed-array CSV reader (reads what parseCSV + csvCell read)', () => {
     );
   });
 
+  test('numbers of 16 to 20 digits, and ties between two doubles, read as Number() reads them', () => {
+    // Source: Number() (ECMAScript StringToNumber: the nearest double, ties to even) for every value.
+    // 2^53 + 1 = 9007199254740993 lies halfway between 2^53 and 2^53 + 2 (IEEE 754 binary64: 53-bit significand).
+    const ties = ['9007199254740993', '9007199254740995', '90071992547409930', '900719925474099300e-2', '9007199254740992.5', '4503599627370496.5'];
+    const nearTies = ['9007199254740993.0000001', '9007199254740992.9999999', '1.7976931348623157e22', '12345678901234567890e-22', '98765432109876543210e22'];
+    const digits = fc.stringMatching(/^[0-9]{16,20}$/);
+    const strings = fc.tuple(digits, fc.integer({ min: 0, max: 20 }), fc.integer({ min: -30, max: 30 }), fc.boolean()).map(([d, point, exp, neg]) => {
+      const at = Math.min(point, d.length);
+      return `${neg ? '-' : ''}${d.slice(0, at)}${at < d.length ? '.' + d.slice(at) : ''}${exp !== 0 ? 'e' + exp : ''}`;
+    });
+    const random = fc.sample(strings, { seed: 17, numRuns: 20000 });
+    const all = [...ties, ...nearTies, ...random];
+    const t = scanNumericCSV('x\n' + all.join('\n') + '\n', 'f.csv')!;
+    all.forEach((s, i) => {
+      if (!Object.is(t.values[0][i], Number(s))) throw new Error(`${s}: read ${t.values[0][i]}, Number() gives ${Number(s)}`);
+    });
+  });
+
   test('random numbers written by String() read back bit-identical, as Number() reads them', () => {
     fc.assert(
       fc.property(fc.array(fc.double(), { minLength: 1, maxLength: 50 }), (xs) => {
@@ -127,6 +146,72 @@ describe('typed-array CSV reader (reads what parseCSV + csvCell read)', () => {
         xs.forEach((x, i) => expect(Object.is(t.values[0][i], Object.is(x, -0) ? 0 : x) || (Number.isNaN(x) && Number.isNaN(t.values[0][i]))).toBe(true));
       }),
       { seed: 11, numRuns: 300 },
+    );
+  });
+});
+
+describe('the typed-array reader in other dialects (reads what toStandardCSV + the general reader read)', () => {
+  /** Same cells as the rewrite to standard CSV read by the general reader, bit for bit; or both give up. */
+  function expectSameAsRewrite(text: string, d: Dialect): void {
+    let standard: string | null;
+    try {
+      standard = toStandardCSV(text, d, 'f.csv');
+    } catch {
+      standard = null;
+    }
+    const t = scanNumericBytes(Buffer.from(text, 'utf8'), 'f.csv', d);
+    if (t === null) {
+      let rows: string[][] | null = null;
+      try {
+        rows = standard === null ? null : parseCSV(standard, 'f.csv');
+      } catch {
+        rows = null;
+      }
+      expect(rows === null || rows.length === 0).toBe(true);
+      return;
+    }
+    expect(standard).not.toBeNull();
+    const g = general(standard!);
+    expect(t.header).toEqual(g.header);
+    const got = cellsOf(t);
+    expect(got.length).toBe(g.rows.length);
+    got.forEach((row, i) =>
+      row.forEach((v, k) => {
+        if (Object.is(v, g.rows[i][k])) return;
+        throw new Error(`${JSON.stringify(text)}: row ${i + 1}, column ${k + 1}: ${String(v)} but the rewrite reads ${String(g.rows[i][k])}`);
+      }),
+    );
+  }
+
+  const semicolonComma: Dialect = { delimiter: ';', decimal: ',' };
+  const tabComma: Dialect = { delimiter: '\t', decimal: ',' };
+  const semicolonPoint: Dialect = { delimiter: ';', decimal: '.' };
+
+  test('decimal commas, points, quoted numbers, text with commas, exponents, long digit strings, non-ASCII', () => {
+    // Source: RFC 4180 section 2 for quotes; Number() for every value (ECMAScript StringToNumber); a decimal comma as European locales write it.
+    const files = [
+      'x;y\n1,5;2\n-0,25;3,\n,5;+1,5e3\n',
+      'x;y\n1.5;"1,5"\n"2.5";a,b\n;\n',
+      '\ufeff x ;"y;z"\r\n 1,5 ;7\r\n12345678901234567,89;0,123456789012345678\r\n',
+      'x;y\n\u00a01,5\u00a0;\u00e9t\u00e9\n1,5.3;,\n1,2,3;"a""b"\n',
+      'a;b\n1;2\n\n\n',
+      '1,5;2,5\n1;2\n',
+      'x\n"multi\nline"\n3,5\nNaN\n-inf\n1e400\n',
+    ];
+    for (const f of files) {
+      expectSameAsRewrite(f, semicolonComma);
+      expectSameAsRewrite(f, semicolonPoint);
+      expectSameAsRewrite(f.replace(/;/g, '\t'), tabComma);
+    }
+  });
+
+  test('random text from the characters that matter reads the same both ways', () => {
+    const alphabet = ['0', '1', '9', '.', ',', ';', '\t', 'e', '-', '+', '\n', '\r', '"', ' ', 'a', 'NaN', '\u00a0', '\u00e9', '12345678901234567'];
+    fc.assert(
+      fc.property(fc.array(fc.constantFrom(...alphabet), { maxLength: 60 }), fc.constantFrom(semicolonComma, tabComma, semicolonPoint), (parts, d) => {
+        expectSameAsRewrite('h;k\n' + parts.join(''), d);
+      }),
+      { seed: 13, numRuns: 3000 },
     );
   });
 });
@@ -206,8 +291,25 @@ describe('apply through the typed-array reader writes what the general path writ
     ] as const) {
       const fast = mapTable(scanNumericCSV(text, 'f.csv')!, map, 'apply');
       expect(fast).not.toBeNull();
-      expect(fast!.csv).toBe(await generalApply(text, map, [...cols]));
+      const pieces: Uint8Array[] = [];
+      fast!.write((p) => pieces.push(p));
+      expect(Buffer.concat(pieces).toString('utf8')).toBe(await generalApply(text, map, [...cols]));
     }
+    map.dispose();
+  });
+
+  test('output of several pieces (over a megabyte) with non-ASCII text passed through is the same bytes', async () => {
+    const x = { n: 5, d: 1, data: Float64Array.from([0.1, 0.7, 1.3, 2, 3.3]), weights: null };
+    const y = { n: 5, d: 1, data: Float64Array.from([10, 11.5, 12, 13.25, 20]), weights: null };
+    const map = await fitMap('quantile', x, y, {}, { columns: ['x'] });
+    const lines = ['note,x'];
+    for (let i = 0; i < 60000; i++) lines.push(`"\u00e9t\u00e9 ${i}, \u4e2d",${(i % 331) / 100}`);
+    const text = lines.join('\n') + '\n';
+    const fast = mapTable(scanNumericBytes(Buffer.from(text, 'utf8'), 'f.csv')!, map, 'apply');
+    const pieces: Uint8Array[] = [];
+    fast!.write((p) => pieces.push(p));
+    expect(pieces.length).toBeGreaterThan(1);
+    expect(Buffer.concat(pieces).toString('utf8')).toBe(await generalApply(text, map, ['x']));
     map.dispose();
   });
 
