@@ -71,12 +71,7 @@ function encodePng(width, height, rgba) {
     rgba.copy(raw, y * (stride + 1) + 1, y * stride, (y + 1) * stride);
   }
   const signature = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);
-  return Buffer.concat([
-    signature,
-    chunk('IHDR', header),
-    chunk('IDAT', zlib.deflateSync(raw, { level: 9 })),
-    chunk('IEND', Buffer.alloc(0)),
-  ]);
+  return Buffer.concat([signature, chunk('IHDR', header), chunk('IDAT', zlib.deflateSync(raw, { level: 9 })), chunk('IEND', Buffer.alloc(0))]);
 }
 
 /** Distance from (px, py) to the segment (ax, ay)-(bx, by). */
@@ -127,13 +122,14 @@ function geometry(size) {
     source: curve(0.14, 0.5, 0.84, 0.3, 24),
     target: curve(0.5, 0.86, 0.7, 0.16, 24),
     // The arrow from the source curve towards the target curve: a shaft and two barbs (too small below 32 px).
-    arrow: size >= 32
-      ? [
-          [0.42, 0.5, 0.57, 0.5],
-          [0.57, 0.5, 0.515, 0.445],
-          [0.57, 0.5, 0.515, 0.555],
-        ]
-      : [],
+    arrow:
+      size >= 32
+        ? [
+            [0.42, 0.5, 0.57, 0.5],
+            [0.57, 0.5, 0.515, 0.445],
+            [0.57, 0.5, 0.515, 0.555],
+          ]
+        : [],
   };
 }
 

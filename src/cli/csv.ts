@@ -73,7 +73,15 @@ export function parseCSV(text: string, name = 'CSV'): string[][] {
 }
 
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;
-const NON_FINITE: Record<string, number> = { nan: NaN, inf: Infinity, '+inf': Infinity, '-inf': -Infinity, infinity: Infinity, '+infinity': Infinity, '-infinity': -Infinity };
+const NON_FINITE: Record<string, number> = {
+  nan: NaN,
+  inf: Infinity,
+  '+inf': Infinity,
+  '-inf': -Infinity,
+  infinity: Infinity,
+  '+infinity': Infinity,
+  '-infinity': -Infinity,
+};
 
 /**
  * What a CSV field holds, in the terms of the coercion module: '' is blank

@@ -28,7 +28,8 @@ class UsageError extends Error {}
 const COMMANDS: Record<string, { flags: string[]; summary: string }> = {
   fit: {
     flags: ['source', 'target', 'method', 'columns', 'source-weights', 'target-weights', 'settings', 'seed', 'tails', 'out', ...MOMENT_FLAGS, ...DIALECT_FLAGS],
-    summary: 'remap fit --source S.csv --target T.csv [--method M] [--columns a,b] [--source-weights COL] [--target-weights COL] [--settings "k=v; ..."] [--seed N] [--tails clamp|linear] --out model.json',
+    summary:
+      'remap fit --source S.csv --target T.csv [--method M] [--columns a,b] [--source-weights COL] [--target-weights COL] [--settings "k=v; ..."] [--seed N] [--tails clamp|linear] --out model.json',
   },
   apply: { flags: ['model', 'input', 'out', ...DIALECT_FLAGS], summary: 'remap apply --model model.json --input X.csv [--out Y.csv]' },
   invert: { flags: ['model', 'input', 'out', ...DIALECT_FLAGS], summary: 'remap invert --model model.json --input Y.csv [--out X.csv]' },
@@ -48,7 +49,9 @@ function usage(): string {
     '',
     ...Object.values(COMMANDS).map((c) => '  ' + c.summary),
     '',
-    `Methods: ${listMethods().map((m) => m.name).join(', ')}, auto.`,
+    `Methods: ${listMethods()
+      .map((m) => m.name)
+      .join(', ')}, auto.`,
     'CSV files have a header row; all numeric columns are used unless --columns picks some.',
   ].join('\n');
 }
@@ -123,7 +126,10 @@ function columnIndex(t: Table, col: string, what: string): number {
 /** The data columns: those named by --columns, else every column holding numbers and no text (weights excluded). */
 function dataColumns(t: Table, columns: string | undefined, exclude: number[]): number[] {
   if (columns !== undefined) {
-    const picked = columns.split(',').map((c) => c.trim()).filter((c) => c !== '');
+    const picked = columns
+      .split(',')
+      .map((c) => c.trim())
+      .filter((c) => c !== '');
     if (picked.length === 0) throw new RemapError('--columns names no column; give names separated by commas.');
     return picked.map((c) => columnIndex(t, c, '--columns'));
   }
@@ -171,7 +177,9 @@ async function fitFromFlags(io: CliIO, flags: Record<string, string>, command: s
   const s = readSide(io, need(flags, 'source', command), 'source', flags, fn);
   const t = readSide(io, need(flags, 'target', command), 'target', flags, fn);
   if (s.columns!.join('\u0000') !== t.columns!.join('\u0000')) {
-    throw new RemapError(`the source columns (${s.columns!.join(', ')}) and target columns (${t.columns!.join(', ')}) differ; give both files the same column names, or pick them with --columns.`);
+    throw new RemapError(
+      `the source columns (${s.columns!.join(', ')}) and target columns (${t.columns!.join(', ')}) differ; give both files the same column names, or pick them with --columns.`,
+    );
   }
   const settings = settingsFrom(flags);
   let method = (flags.method ?? '').trim().toLowerCase();
@@ -216,14 +224,22 @@ function mapCells(map: TransportMap, t: Table, command: 'apply' | 'invert'): { c
   if (names && names.every((c) => t.header.includes(c))) cols = names.map((c) => t.header.indexOf(c));
   else if (t.header.length === map.d) cols = t.header.map((_, k) => k);
   else {
-    throw new RemapError(`${inputPath} has columns ${t.header.join(', ')}, but the map takes ${map.d} column${map.d === 1 ? '' : 's'}${names ? ` named ${names.join(', ')}` : ''}; give those columns.`);
+    throw new RemapError(
+      `${inputPath} has columns ${t.header.join(', ')}, but the map takes ${map.d} column${map.d === 1 ? '' : 's'}${names ? ` named ${names.join(', ')}` : ''}; give those columns.`,
+    );
   }
   const cells = t.rows.map((r) => cols.map((k) => r[k]));
   for (let i = 0; i < cells.length; i++) {
     for (let j = 0; j < cols.length; j++) {
       const v = cells[i][j];
-      if (typeof v === 'string') throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: "${v}" is not a number; only numbers (or blanks) can be mapped: replace it or clear the field.`);
-      if (typeof v === 'number' && !Number.isFinite(v)) throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: ${v} is not a finite number; replace it with a number or clear the field.`);
+      if (typeof v === 'string')
+        throw new RemapError(
+          `${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: "${v}" is not a number; only numbers (or blanks) can be mapped: replace it or clear the field.`,
+        );
+      if (typeof v === 'number' && !Number.isFinite(v))
+        throw new RemapError(
+          `${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: ${v} is not a finite number; replace it with a number or clear the field.`,
+        );
     }
   }
   const fn = `remap ${command}`;
@@ -236,7 +252,8 @@ function mapCells(map: TransportMap, t: Table, command: 'apply' | 'invert'): { c
     for (let j = 0; j < cols.length; j++) {
       const g = grid[i][j];
       // A per-cell error (a result that overflows) must not leave the unmapped input in its place.
-      if (g instanceof CellError) throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: ${g.message}`, g.kind === 'value' ? 'value' : 'num');
+      if (g instanceof CellError)
+        throw new RemapError(`${inputPath}, line ${i + 2}, column ${t.header[cols[j]]}: ${g.message}`, g.kind === 'value' ? 'value' : 'num');
       row[cols[j]] = typeof g === 'number' ? g : g === '' ? null : row[cols[j]];
     }
     out.push(row);
@@ -311,7 +328,9 @@ export async function main(argv: readonly string[], cliIO: CliIO): Promise<numbe
         const { map, reason } = await fitFromFlags(io, flags, 'fit');
         io.writeFile(out, JSON.stringify(map.toJSON()));
         const diag = map.diagnostics();
-        io.stderr(`remap: fitted ${diag.method} on ${diag.n.source} x ${diag.n.target} rows, ${diag.d} column${diag.d === 1 ? '' : 's'}; cost (${diag.cost.label}) ${diag.cost.w2Squared.toPrecision(6)}; wrote ${out}.\n`);
+        io.stderr(
+          `remap: fitted ${diag.method} on ${diag.n.source} x ${diag.n.target} rows, ${diag.d} column${diag.d === 1 ? '' : 's'}; cost (${diag.cost.label}) ${diag.cost.w2Squared.toPrecision(6)}; wrote ${out}.\n`,
+        );
         if (reason) io.stderr(`remap: method chosen: ${reason}\n`);
         for (const w of diag.warnings) io.stderr(`remap: warning: ${w.message} ${w.action}\n`);
         io.stderr(`remap: ${diag.reminder}\n`);

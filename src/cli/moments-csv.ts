@@ -17,7 +17,8 @@ import { csvCell, parseCSV } from './csv';
  */
 export function readMomentsCSV(text: string, name: string): { columns: string[]; moments: GivenMoments } {
   const rows = parseCSV(text, name);
-  if (rows.length < 2) throw new RemapError(`${name}: a summary needs a header row and rows labelled n, mean and cov; see the README, "Fitting from summaries".`);
+  if (rows.length < 2)
+    throw new RemapError(`${name}: a summary needs a header row and rows labelled n, mean and cov; see the README, "Fitting from summaries".`);
   const columns = rows[0].slice(1).map((c) => c.trim());
   const d = columns.length;
   if (d < 1) throw new RemapError(`${name}: the header names no column after the label column; write e.g. "stat,a,b".`);
@@ -30,7 +31,8 @@ export function readMomentsCSV(text: string, name: string): { columns: string[];
     const out: number[] = [];
     for (let k = 1; k <= count; k++) {
       const v = csvCell(r[k] ?? '');
-      if (typeof v !== 'number' || !Number.isFinite(v)) throw new RemapError(`${name}, line ${line}, column ${columns[k - 1]}: "${r[k] ?? ''}" is not a finite number; give one.`);
+      if (typeof v !== 'number' || !Number.isFinite(v))
+        throw new RemapError(`${name}, line ${line}, column ${columns[k - 1]}: "${r[k] ?? ''}" is not a finite number; give one.`);
       out.push(v);
     }
     return out;
@@ -43,10 +45,12 @@ export function readMomentsCSV(text: string, name: string): { columns: string[];
     else if (label === 'cov') cov.push(...numbers(rows[i], line, d));
     else if (label === 'min') min = numbers(rows[i], line, d);
     else if (label === 'max') max = numbers(rows[i], line, d);
-    else if (label !== '') throw new RemapError(`${name}, line ${line}: the label "${rows[i][0]}" is not one of n, mean, cov, min, max; fix or remove that row.`);
+    else if (label !== '')
+      throw new RemapError(`${name}, line ${line}: the label "${rows[i][0]}" is not one of n, mean, cov, min, max; fix or remove that row.`);
   }
   if (n === undefined) throw new RemapError(`${name}: no row labelled n (the number of rows summarised); add one.`);
   if (!mean) throw new RemapError(`${name}: no row labelled mean; add the column means.`);
-  if (cov.length !== d * d) throw new RemapError(`${name}: ${cov.length / d} rows labelled cov, but the covariance of ${d} columns needs ${d}; give the whole matrix.`);
+  if (cov.length !== d * d)
+    throw new RemapError(`${name}: ${cov.length / d} rows labelled cov, but the covariance of ${d} columns needs ${d}; give the whole matrix.`);
   return { columns, moments: { n, mean, cov, min, max } };
 }

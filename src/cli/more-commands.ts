@@ -36,12 +36,19 @@ export const MORE_COMMANDS: Record<string, { flags: string[]; summary: string }>
     summary:
       'remap fit-groups --source S.csv --target T.csv --source-group-column G --target-group-column G [--fallback none|pooled] [fit options] --out groups.json',
   },
-  'apply-groups': { flags: ['model', 'input', 'group-column', 'out'], summary: 'remap apply-groups --model groups.json --input X.csv --group-column G [--out Y.csv]' },
-  'invert-groups': { flags: ['model', 'input', 'group-column', 'out'], summary: 'remap invert-groups --model groups.json --input Y.csv --group-column G [--out X.csv]' },
+  'apply-groups': {
+    flags: ['model', 'input', 'group-column', 'out'],
+    summary: 'remap apply-groups --model groups.json --input X.csv --group-column G [--out Y.csv]',
+  },
+  'invert-groups': {
+    flags: ['model', 'input', 'group-column', 'out'],
+    summary: 'remap invert-groups --model groups.json --input Y.csv --group-column G [--out X.csv]',
+  },
   'report-groups': { flags: ['model'], summary: 'remap report-groups --model groups.json' },
   'fit-table': {
     flags: ['source', 'target', 'source-table', 'target-table', 'method', 'columns', 'source-weights', 'target-weights', 'beyond', 'settings', 'tails', 'out'],
-    summary: 'remap fit-table (--source S.csv | --source-table s.csv) (--target T.csv | --target-table t.csv) [--beyond hold|extend] [--method M] --out model.json',
+    summary:
+      'remap fit-table (--source S.csv | --source-table s.csv) (--target T.csv | --target-table t.csv) [--beyond hold|extend] [--method M] --out model.json',
   },
   bounds: {
     flags: [...SAMPLE_FLAGS, 'input', 'level', 'replicates', 'source-replicates', 'target-replicates', 'replicate-kind', 'fay', 'multiplier', 'shared', 'out'],
@@ -82,7 +89,12 @@ function need(flags: Record<string, string>, name: string, command: string): str
 
 /** Data columns: --columns, else every column of numbers not otherwise used. */
 function dataColumns(t: Table, columns: string | undefined, exclude: number[]): number[] {
-  if (columns !== undefined) return columns.split(',').map((c) => c.trim()).filter((c) => c !== '').map((c) => col(t, c, '--columns'));
+  if (columns !== undefined)
+    return columns
+      .split(',')
+      .map((c) => c.trim())
+      .filter((c) => c !== '')
+      .map((c) => col(t, c, '--columns'));
   const out: number[] = [];
   for (let k = 0; k < t.header.length; k++) {
     if (exclude.includes(k)) continue;
@@ -102,12 +114,23 @@ interface Read {
   readonly table: Table;
 }
 
-function readRows(io: MoreIO, path: string, flags: Record<string, string>, side: 'source' | 'target' | 'input', groupFlag: string | null, extra: number[] = []): Read {
+function readRows(
+  io: MoreIO,
+  path: string,
+  flags: Record<string, string>,
+  side: 'source' | 'target' | 'input',
+  groupFlag: string | null,
+  extra: number[] = [],
+): Read {
   const t = readTable(io, path);
   const wName = side === 'input' ? undefined : flags[`${side}-weights`];
   const wk = wName !== undefined ? col(t, wName, `--${side}-weights`) : -1;
   const gk = groupFlag ? col(t, flags[groupFlag], `--${groupFlag}`) : -1;
-  const cols = dataColumns(t, flags.columns, [wk, gk, ...extra].filter((k) => k >= 0));
+  const cols = dataColumns(
+    t,
+    flags.columns,
+    [wk, gk, ...extra].filter((k) => k >= 0),
+  );
   const d = cols.length;
   const data: number[] = [];
   const weights: number[] = [];
@@ -118,7 +141,8 @@ function readRows(io: MoreIO, path: string, flags: Record<string, string>, side:
     const used = [...cols, ...(wk >= 0 ? [wk] : []), ...extra];
     for (const k of used) {
       const v = r[k];
-      if (typeof v === 'number' && !Number.isFinite(v)) throw new RemapError(`${path}, line ${i + 2}, column ${t.header[k]}: ${v} is not a finite number; replace it or clear the field.`);
+      if (typeof v === 'number' && !Number.isFinite(v))
+        throw new RemapError(`${path}, line ${i + 2}, column ${t.header[k]}: ${v} is not a finite number; replace it or clear the field.`);
     }
     if (used.some((k) => typeof r[k] !== 'number') || (gk >= 0 && (r[gk] === null || String(r[gk]).trim() === ''))) {
       dropped++;
@@ -153,12 +177,15 @@ function readDistributionTable(io: MoreIO, path: string): Distribution1d {
   const p = lower.indexOf('probability');
   const a = lower.indexOf('count') >= 0 ? lower.indexOf('count') : lower.indexOf('share');
   if (v < 0 || (p < 0 && a < 0)) {
-    throw new RemapError(`${path}: a distribution table needs the columns probability and value (a quantile table), or value and count (or share) (a frequency table); its columns are ${t.header.join(', ')}.`);
+    throw new RemapError(
+      `${path}: a distribution table needs the columns probability and value (a quantile table), or value and count (or share) (a frequency table); its columns are ${t.header.join(', ')}.`,
+    );
   }
   const nums = (k: number) =>
     t.rows.map((r, i) => {
       const x = r[k];
-      if (typeof x !== 'number') throw new RemapError(`${path}, line ${i + 2}, column ${t.header[k]}: "${String(x ?? '')}" is not a number; every row of a table needs numbers.`);
+      if (typeof x !== 'number')
+        throw new RemapError(`${path}, line ${i + 2}, column ${t.header[k]}: "${String(x ?? '')}" is not a number; every row of a table needs numbers.`);
       return x;
     });
   if (p >= 0) return { kind: 'quantiles', table: quantileTable(nums(p), nums(v), path) };
@@ -166,7 +193,10 @@ function readDistributionTable(io: MoreIO, path: string): Distribution1d {
 }
 
 function replicateColumns(t: Table, spec: string): number[] {
-  const names = spec.split(',').map((s) => s.trim()).filter((s) => s !== '');
+  const names = spec
+    .split(',')
+    .map((s) => s.trim())
+    .filter((s) => s !== '');
   const out: number[] = [];
   for (const n of names) {
     if (n.endsWith('*')) {

@@ -32,7 +32,7 @@ export interface NumericTable {
   readonly texts: string[];
 }
 
-const POW10 = [1e0, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
+const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
 const COMMA = 44;
 const POINT = 46;
 const LF = 10;
@@ -185,10 +185,10 @@ function classify(a: number, b: number, quoted: boolean): void {
     const fracStart = p;
     while (p < b && (c = bytes[p]) >= 48 && c <= 57) {
       if (m < 9e14) m = m * 10 + (c - 48);
-    else {
-      ml = ml * 10 + (c - 48);
-      nl++;
-    }
+      else {
+        ml = ml * 10 + (c - 48);
+        nl++;
+      }
       p++;
     }
     fracDigits = p - fracStart;

@@ -16,7 +16,10 @@ const PIECE = 1 << 20;
  * no rows, text or non-finite numbers to map, a row with only some of its
  * cells blank, a result that is not finite.
  */
-export function mapTable(t: NumericTable, map: TransportMap, direction: 'apply' | 'invert',
+export function mapTable(
+  t: NumericTable,
+  map: TransportMap,
+  direction: 'apply' | 'invert',
 ): { mapped: Mapped; write: (sink: (chunk: Uint8Array) => void) => void } | null {
   const names = map.diagnostics().columns;
   let cols: number[];

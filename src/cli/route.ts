@@ -39,7 +39,8 @@ const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[
 
 /** Options of the commands this module adds or extends. */
 export const SQL_FLAGS = ['model', 'table', 'columns', 'direction', 'suffix', 'quote', 'out'];
-export const SQL_SUMMARY = 'remap sql --model model.json --table T [--columns a,b] [--direction apply|invert] [--suffix _mapped] [--quote double|backtick] [--out map.sql]';
+export const SQL_SUMMARY =
+  'remap sql --model model.json --table T [--columns a,b] [--direction apply|invert] [--suffix _mapped] [--quote double|backtick] [--out map.sql]';
 export const DIALECT_FLAGS = ['delimiter', 'decimal'];
 export const MOMENT_FLAGS = ['source-moments', 'target-moments'];
 
@@ -79,7 +80,8 @@ export async function route(command: string, flags: Record<string, string>, io: 
     }
     if (bytes === null && !LONE_SURROGATE.test(text!)) bytes = Buffer.from(text!, 'utf8');
     const dialect = dialectFrom(flags.delimiter, flags.decimal, bytes !== null ? detectDialectBytes(bytes) : detectDialect(text!));
-    if (dialect.delimiter !== ',' || flags.delimiter !== undefined || flags.decimal !== undefined) io.stderr(`remap: read ${path} as ${describeDialect(dialect)}.\n`);
+    if (dialect.delimiter !== ',' || flags.delimiter !== undefined || flags.decimal !== undefined)
+      io.stderr(`remap: read ${path} as ${describeDialect(dialect)}.\n`);
     inputs.set(path, { bytes, text, dialect });
   }
   const readFile = (p: string): string => {
@@ -120,7 +122,10 @@ function sqlCommand(flags: Record<string, string>, io: RouteIO): number {
   if (direction !== 'apply' && direction !== 'invert') throw new RemapError(`--direction must be apply or invert, not "${flags.direction}".`);
   const quote = (flags.quote ?? 'double').trim().toLowerCase();
   if (quote !== 'double' && quote !== 'backtick') throw new RemapError(`--quote must be double (DuckDB, Trino) or backtick (Spark SQL), not "${flags.quote}".`);
-  const columns = flags.columns?.split(',').map((c) => c.trim()).filter((c) => c !== '');
+  const columns = flags.columns
+    ?.split(',')
+    .map((c) => c.trim())
+    .filter((c) => c !== '');
   const { select } = mapToSql(json, { table: need(flags, 'table', SQL_SUMMARY), columns, direction, suffix: flags.suffix, quote });
   const text = `-- remap: ${json.method} map, ${direction === 'apply' ? 'source to target' : 'target to source'}; runs in DuckDB, Spark SQL and Trino.\n${select};\n`;
   if (flags.out) io.writeFile(flags.out, text);
@@ -132,9 +137,11 @@ function sqlCommand(flags: Record<string, string>, io: RouteIO): number {
 function fitFromMoments(command: string, flags: Record<string, string>, io: RouteIO): number {
   const usage = `remap ${command} --method linear --source-moments S.csv --target-moments T.csv [--settings "ridge=..."]${command === 'fit' ? ' --out model.json' : ''}`;
   const method = (flags.method ?? 'linear').trim().toLowerCase();
-  if (method !== 'linear') throw new RemapError(`fitting from means and covariances gives the linear map only, not ${method}; give --method linear (or fit from rows).`);
+  if (method !== 'linear')
+    throw new RemapError(`fitting from means and covariances gives the linear map only, not ${method}; give --method linear (or fit from rows).`);
   for (const f of ['source', 'target', 'source-weights', 'target-weights', 'columns']) {
-    if (flags[f] !== undefined) throw new RemapError(`--${f} does not go with --source-moments and --target-moments; the summaries already say what they summarise. Usage: ${usage}`);
+    if (flags[f] !== undefined)
+      throw new RemapError(`--${f} does not go with --source-moments and --target-moments; the summaries already say what they summarise. Usage: ${usage}`);
   }
   const read = (flag: string) => {
     const path = need(flags, flag, usage);
@@ -144,19 +151,37 @@ function fitFromMoments(command: string, flags: Record<string, string>, io: Rout
   const s = read('source-moments');
   const t = read('target-moments');
   if (s.columns.join('\u0000') !== t.columns.join('\u0000')) {
-    throw new RemapError(`the source summary's columns (${s.columns.join(', ')}) and the target's (${t.columns.join(', ')}) differ; give both the same columns in the same order.`);
+    throw new RemapError(
+      `the source summary's columns (${s.columns.join(', ')}) and the target's (${t.columns.join(', ')}) differ; give both the same columns in the same order.`,
+    );
   }
   const settings: Record<string, unknown> = flags.settings ? parseSettingsText(flags.settings) : {};
   if (flags.tails !== undefined) settings.tails = flags.tails;
   const map = fitLinearFromMoments(s.moments, t.moments, settings, { columns: s.columns });
   const diag = map.diagnostics();
   if (command === 'cost') {
-    io.stdout(JSON.stringify({ method: 'linear', w2_squared: diag.cost.w2Squared, w2: diag.cost.w2, kind: diag.cost.kind, note: diag.cost.note, d: diag.d, warnings: diag.warnings.map((w) => w.message) }, null, 2) + '\n');
+    io.stdout(
+      JSON.stringify(
+        {
+          method: 'linear',
+          w2_squared: diag.cost.w2Squared,
+          w2: diag.cost.w2,
+          kind: diag.cost.kind,
+          note: diag.cost.note,
+          d: diag.d,
+          warnings: diag.warnings.map((w) => w.message),
+        },
+        null,
+        2,
+      ) + '\n',
+    );
     return 0;
   }
   const out = need(flags, 'out', usage);
   io.writeFile(out, JSON.stringify(map.toJSON()));
-  io.stderr(`remap: fitted linear from summaries of ${diag.n.source} x ${diag.n.target} rows, ${diag.d} column${diag.d === 1 ? '' : 's'}; squared W2 ${diag.cost.w2Squared.toPrecision(6)}; wrote ${out}.\n`);
+  io.stderr(
+    `remap: fitted linear from summaries of ${diag.n.source} x ${diag.n.target} rows, ${diag.d} column${diag.d === 1 ? '' : 's'}; squared W2 ${diag.cost.w2Squared.toPrecision(6)}; wrote ${out}.\n`,
+  );
   for (const w of diag.warnings) io.stderr(`remap: warning: ${w.message} ${w.action}\n`);
   return 0;
 }

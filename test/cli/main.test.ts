@@ -2,12 +2,11 @@ import { execFileSync, spawnSync } from 'child_process';
 import * as path from 'path';
 import { runCli as run } from '../helpers/run-cli';
 
-
 const S = 'id,x,w\na,3,1\nb,1,1\nc,2,2\n';
 const T = 'id,x,w\na,30,1\nb,10,1\nc,20,1\n';
 
 describe('remap command line', () => {
-  test('fit writes map JSON; apply maps the model\'s columns and passes others through, same header', async () => {
+  test("fit writes map JSON; apply maps the model's columns and passes others through, same header", async () => {
     const files: Record<string, string> = { 's.csv': S, 't.csv': T };
     const fit = await run(['fit', '--source', 's.csv', '--target', 't.csv', '--columns', 'x', '--out', 'm.json'], files);
     expect(fit.code).toBe(0);
