@@ -34,12 +34,11 @@ interface Result {
 const MB = 1024 * 1024;
 
 async function child(scenario: string): Promise<void> {
-  /* eslint-disable @typescript-eslint/no-require-imports */
   require('../src/engine/methods');
   const { Random } = require('../src/engine/stats/random') as typeof import('../src/engine/stats/random');
   const { fitMapSync } = require('../src/engine/methods') as typeof import('../src/engine/methods');
   const calls = require('../src/functions/calls') as typeof import('../src/functions/calls');
-  /* eslint-enable @typescript-eslint/no-require-imports */
+
   const gc = (globalThis as { gc?: () => void }).gc ?? (() => undefined);
   const normals = (n: number, seed: number, mean: number, sd: number, log = false): Float64Array => {
     const r = new Random(seed);
@@ -143,7 +142,6 @@ function runChild(scenario: string): Result {
 /** The 1, 5 and 15 minute load averages where the system reports them (Linux), else "unknown". */
 function loadAverage(): string {
   try {
-    // eslint-disable-next-line @typescript-eslint/no-require-imports
     return (require('fs') as typeof import('fs')).readFileSync('/proc/loadavg', 'utf8').split(' ').slice(0, 3).join(' ');
   } catch {
     return 'unknown';

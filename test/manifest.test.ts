@@ -17,13 +17,13 @@ const ASSETS = path.join(ROOT, 'assets');
 type Xml = any; // xml2js output: elements are arrays, attributes live under "$"
 // office-addin-manifest's own entry points also load uuid and the JSON-manifest tooling, which ship ES modules
 // that jest does not transform; so take its parser, resolved from its folder, and read the tree directly.
-const xml2js: { parseStringPromise(xml: string): Promise<Xml> } =
-  // eslint-disable-next-line @typescript-eslint/no-require-imports
-  require(require.resolve('xml2js', { paths: [path.dirname(require.resolve('office-addin-manifest/package.json'))] }));
+const xml2js: { parseStringPromise(xml: string): Promise<Xml> } = require(
+  require.resolve('xml2js', { paths: [path.dirname(require.resolve('office-addin-manifest/package.json'))] }),
+);
 type WebpackConfigFactory = ((env: Record<string, unknown>, argv: Record<string, unknown>) => Promise<any>) & { DEV_BASE_URL: string };
-// eslint-disable-next-line @typescript-eslint/no-require-imports
+
 const makeConfig: WebpackConfigFactory = require('../webpack.config.js');
-// eslint-disable-next-line @typescript-eslint/no-require-imports
+
 const icons: { SIZES: number[]; render(size: number): Buffer } = require('../scripts/make-icons.js');
 
 let app: Xml; // <OfficeApp>

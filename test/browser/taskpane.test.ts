@@ -11,7 +11,6 @@ import path from 'path';
 import type { AddressInfo } from 'net';
 import { chromium, type Browser, type Page } from 'playwright-core';
 
-// eslint-disable-next-line @typescript-eslint/no-require-imports
 const officeMock = require('./office-mock.js');
 
 const ROOT = path.resolve(__dirname, '../..');

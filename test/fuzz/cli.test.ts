@@ -23,7 +23,6 @@ const tally = new Map<string, number>();
 const requirementOnly = new Map<string, string>();
 const dbg = new Map<string, number>();
 afterAll(() => {
-  // eslint-disable-next-line no-console
   console.log(
     `fuzz (command line): ${cases} cases run; exit codes: ${[...tally.entries()]
       .sort()

@@ -35,7 +35,7 @@ const tally = new Map<string, number>();
 const shapes = new Map<string, number>();
 afterAll(() => {
   forgetAll();
-  // eslint-disable-next-line no-console
+
   console.log(
     `fuzz (worksheet functions): ${cases} cases run over ${listMethods().length} methods (${listMethods()
       .map((m) => m.name)

@@ -23,7 +23,6 @@ const PROTO_KEYS = Object.getOwnPropertyNames(Object.prototype).sort().join(',')
 let cases = 0;
 const tally = new Map<string, number>();
 afterAll(() => {
-  // eslint-disable-next-line no-console
   console.log(
     `fuzz (map JSON): ${cases} mutated maps; ${[...tally.entries()]
       .sort()

@@ -6,7 +6,6 @@ import type { ExcelRun } from '../../src/workbook/excel-run';
 import { CHUNK_NAMESPACE, INDEX_NAMESPACE, WorkbookMapStore } from '../../src/workbook/map-store';
 import { installCustomFunctionsStub } from '../helpers/custom-functions-stub';
 
-// eslint-disable-next-line @typescript-eslint/no-require-imports
 const officeMock = require('../browser/office-mock.js');
 
 installCustomFunctionsStub();

@@ -2,7 +2,6 @@ import type { ExcelRun } from '../../src/workbook/excel-run';
 import { insertComparisonChart } from '../../src/workbook/comparison-chart';
 import { readFormula, readValues, reenterFormula, selectedAddress, splitAddress, writeFormula } from '../../src/workbook/ranges';
 
-// eslint-disable-next-line @typescript-eslint/no-require-imports
 const officeMock = require('../browser/office-mock.js');
 
 describe('reading and writing cells through Office.js (mocked)', () => {

@@ -54,7 +54,8 @@ describe('gradientNetMethod', () => {
     expect(gradientNetMethod.name).toBe('gradient-net');
     expect(gradientNetMethod.shape).toBe('joint');
     expect(gradientNetMethod.weights).toBe(true);
-    expect(gradientNetMethod.minRows(2)).toBe(10); // Source: design choice, max(10, d + 2) rows (a held-out split needs rows beyond the d + 2 a covariance needs)
+    // Source: design choice, max(10, d + 2) rows (a held-out split needs rows beyond the d + 2 a covariance needs)
+    expect(gradientNetMethod.minRows(2)).toBe(10);
     expect(gradientNetMethod.minRows(12)).toBe(14);
   });
 
