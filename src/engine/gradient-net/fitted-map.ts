@@ -2,7 +2,7 @@ import { BaseMap, type MapHeader } from '../base';
 import { RemapError } from '../errors';
 import type { FitRecord, MapJSON, Mapped } from '../map';
 import type { Points } from '../points';
-import { Float64Network } from './float64-network';
+import { Float64Network, ROWS_PER_BLOCK } from './float64-network';
 import { checkNetworkParams, type NetworkParams } from './network-params';
 import { newtonInverse } from './newton-inverse';
 
@@ -44,37 +44,54 @@ export class GradientNetMap extends BaseMap {
     this.net = new Float64Network(network);
   }
 
-  /** T(x) in float64, in blocks of rows (Float64Network.forwardRows). O(n * hidden * d * layers). */
+  /**
+   * T(x) in float64, in blocks of rows held column by column (Float64Network.forwardColumns): each
+   * block is standardised straight into the network's input columns and mapped back from its output
+   * columns, with no other copies. O(n * hidden * d * layers).
+   */
   protected applyPoints(x: Points): Mapped {
-    const { d } = this;
-    const out = new Float64Array(x.n * d);
+    const { d, net } = this;
+    const n = x.n;
+    const out = new Float64Array(n * d);
     const clamp = this.header.settings.tails !== 'linear';
-    const block = 4096;
-    const z = new Float64Array(block * d);
-    const f = new Float64Array(block * d);
+    const B = Math.min(ROWS_PER_BLOCK, n);
+    const z = net.columns(B);
+    const f = net.columns(B);
     const { lo, hi, mean: ms, scale: ss } = this.source;
     const { mean: mt, scale: st } = this.target;
     const data = x.data;
+    // Per row of the block: whether any coordinate lay outside the fitted range.
+    const far = new Uint8Array(B);
     let outside = 0;
-    for (let start = 0; start < x.n; start += block) {
-      const rows = Math.min(block, x.n - start);
-      // Standardise the block (clamping to the fitted range with tails = clamp), counting rows outside it.
-      for (let r = 0, j = start * d, o = 0; r < rows; r++) {
-        let out = false;
-        for (let k = 0; k < d; k++, j++, o++) {
+    for (let start = 0; start < n; start += B) {
+      const rows = Math.min(B, n - start);
+      far.fill(0, 0, rows);
+      // Standardise the block (clamping to the fitted range with tails = clamp), noting rows outside it.
+      for (let k = 0; k < d; k++) {
+        const col = z[k];
+        const l = lo[k];
+        const h = hi[k];
+        const m = ms[k];
+        const s = ss[k];
+        for (let r = 0, j = start * d + k; r < rows; r++, j += d) {
           let v = data[j];
-          if (v < lo[k] || v > hi[k]) {
-            out = true;
-            if (clamp) v = v < lo[k] ? lo[k] : hi[k];
+          if (v < l || v > h) {
+            far[r] = 1;
+            if (clamp) v = v < l ? l : h;
           }
-          z[o] = (v - ms[k]) / ss[k];
+          col[r] = (v - m) / s;
         }
-        if (out) outside++;
       }
-      this.net.forwardRows(z, rows, f);
-      for (let r = 0, j = start * d, o = 0; r < rows; r++) for (let k = 0; k < d; k++, j++, o++) out[j] = mt[k] + st[k] * f[o];
+      for (let r = 0; r < rows; r++) outside += far[r];
+      net.forwardColumns(z, rows, f);
+      for (let k = 0; k < d; k++) {
+        const col = f[k];
+        const m = mt[k];
+        const s = st[k];
+        for (let r = 0, j = start * d + k; r < rows; r++, j += d) out[j] = m + s * col[r];
+      }
     }
-    return { n: x.n, d, data: out, outside };
+    return { n, d, data: out, outside };
   }
 
   /**
