@@ -3,7 +3,7 @@ import { Float64Network } from '../../../src/engine/gradient-net/float64-network
 import { smallestEigenvalue } from '../../../src/engine/stats/smallest-eigenvalue';
 import { Random } from '../../../src/engine/stats/random';
 import { TensorNetwork } from '../../../src/engine/gradient-net/tensor-network';
-import { randomParams } from './helpers';
+import { closedForm, randomParams } from './helpers';
 
 describe.each(BACKENDS)('on the %s backend', (backend) => {
   beforeAll(() => useBackend(backend));
@@ -91,6 +91,44 @@ describe('Float64Network.forwardRows', () => {
         // Source: the same formula (network-params.ts); only the order of float64 operations may differ.
         for (let k = 0; k < d; k++) expect(Math.abs(out[i * d + k] - f[k])).toBeLessThan(1e-12 * (1 + Math.abs(f[k])));
       }
+    }
+  });
+});
+
+describe('Float64Network.forwardColumns (the path that applies a map)', () => {
+  test.each([1, 2, 3, 4, 5, 7, 9])('d = %i: equals the closed form written out directly, to 1e-12', (d) => {
+    const p = randomParams(d, 16, 1, 70 + d);
+    const net = new Float64Network(p);
+    const r = new Random(d);
+    const m = 37;
+    // A few coordinates far out, where the sigmoid saturates (e^-u overflows to Infinity or underflows to 0).
+    const x = Array.from({ length: d }, (_, k) => Float64Array.from({ length: m }, (_, i) => (i === 3 ? 800 * (k % 2 ? 1 : -1) : 3 * r.normal())));
+    const out = net.columns(m);
+    net.forwardColumns(x, m, out);
+    for (let i = 0; i < m; i++) {
+      const want = closedForm(
+        p,
+        x.map((col) => col[i]),
+      );
+      // Source: the closed form of arXiv 2111.12187 (network-params.ts); only the order of float64 operations differs.
+      for (let k = 0; k < d; k++) expect(Math.abs(out[k][i] - want[k])).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(want[k])));
+    }
+  });
+
+  test('layers = 2 (the cascade) gives the numbers of forward row by row', () => {
+    const d = 3;
+    const net = new Float64Network(randomParams(d, 10, 2, 12));
+    const r = new Random(4);
+    const x = Array.from({ length: d }, () => Float64Array.from({ length: 5 }, () => r.normal()));
+    const out = net.columns(5);
+    net.forwardColumns(x, 5, out);
+    const f = new Float64Array(d);
+    for (let i = 0; i < 5; i++) {
+      net.forward(
+        Float64Array.from(x, (col) => col[i]),
+        f,
+      );
+      for (let k = 0; k < d; k++) expect(out[k][i]).toBe(f[k]); // Source: design choice, the cascade is evaluated row by row by forward itself
     }
   });
 });
