@@ -4,6 +4,7 @@ import { parseMapJSON } from '../engine/map-json';
 import { restoreMap } from '../engine/methods';
 import { isHandle, isProgressText } from './handles';
 import { currentKeeper, type KeptInfo } from './keeper';
+import { Shelf } from './shelf';
 
 /**
  * Fitted maps by handle, for this session. A handle is text derived from the
@@ -13,9 +14,7 @@ import { currentKeeper, type KeptInfo } from './keeper';
  * add-in): a `Keeper` set by the host is asked for a handle this session lacks.
  */
 
-const MAX_MAPS = 64;
-const maps = new Map<string, TransportMap>();
-const inflight = new Map<string, Promise<TransportMap>>();
+const shelf = new Shelf<TransportMap>((json) => restoreMap(parseMapJSON(json)));
 
 /**
  * Remembers a map fitted elsewhere (the pane's background fit) and keeps it
@@ -30,36 +29,22 @@ export async function rememberAndKeep(handle: string, map: TransportMap, info?: 
 
 /** Remembers a fitted map under its handle (most recently used last; the oldest is dropped past 64). */
 export function remember(handle: string, map: TransportMap): void {
-  if (maps.has(handle)) maps.delete(handle);
-  maps.set(handle, map);
-  while (maps.size > MAX_MAPS) {
-    const oldest = maps.keys().next().value as string;
-    maps.get(oldest)?.dispose();
-    maps.delete(oldest);
-  }
+  shelf.remember(handle, map);
 }
 
 /** The map for `handle` if this session has it. */
 export function recall(handle: string): TransportMap | undefined {
-  const m = maps.get(handle);
-  if (m) {
-    maps.delete(handle);
-    maps.set(handle, m);
-  }
-  return m;
+  return shelf.recall(handle);
 }
 
 /** Forgets a map (and disposes it). */
 export function forget(handle: string): void {
-  maps.get(handle)?.dispose();
-  maps.delete(handle);
+  shelf.forget(handle);
 }
 
 /** Forgets every map (tests, and the pane's "clear"). */
 export function forgetAll(): void {
-  for (const m of maps.values()) m.dispose();
-  maps.clear();
-  inflight.clear();
+  shelf.forgetAll();
 }
 
 /**
@@ -67,64 +52,12 @@ export function forgetAll(): void {
  * session nor the keeper has it; concurrent requests for one handle share one fit.
  */
 export function recallOrFit(handle: string, fit: () => TransportMap | Promise<TransportMap>, info?: KeptInfo): TransportMap | Promise<TransportMap> {
-  const known = recall(handle);
-  if (known) return known;
-  const running = inflight.get(handle);
-  if (running) return running;
-  let kept: string | null | Promise<string | null> = null;
-  try {
-    kept = currentKeeper()?.load(handle) ?? null;
-  } catch {
-    kept = null; // a damaged kept copy: fit again, and the new copy replaces it
-  }
-  const finish = (json: string | null): TransportMap | Promise<TransportMap> => {
-    if (json) {
-      try {
-        const m = restoreMap(parseMapJSON(json));
-        remember(handle, m);
-        return m;
-      } catch {
-        /* a kept copy that no longer reads: fit again */
-      }
-    }
-    const r = fit();
-    if (!(r instanceof Promise)) {
-      store(handle, r, info);
-      return r;
-    }
-    const p = r.then(
-      (m) => {
-        inflight.delete(handle);
-        store(handle, m, info);
-        return m;
-      },
-      (e) => {
-        inflight.delete(handle);
-        throw e;
-      },
-    );
-    inflight.set(handle, p);
-    return p;
-  };
-  return kept instanceof Promise ? kept.then(finish, () => finish(null)) : finish(kept);
+  return shelf.recallOrFit(handle, fit, info);
 }
 
 /** The running fit for `handle`, if one is in flight in this session. */
 export function running(handle: string): Promise<TransportMap> | undefined {
-  return inflight.get(handle);
-}
-
-function store(handle: string, m: TransportMap, info?: KeptInfo): void {
-  remember(handle, m);
-  const keeper = currentKeeper();
-  if (keeper) {
-    try {
-      const r = keeper.save(handle, JSON.stringify(m.toJSON()), info);
-      if (r instanceof Promise) r.catch(() => undefined);
-    } catch {
-      /* keeping is best effort: the map still works in this session */
-    }
-  }
+  return shelf.running(handle);
 }
 
 /**
@@ -141,24 +74,10 @@ export function resolveMap(model: string, fn: string): TransportMap | Promise<Tr
   if (!isHandle(text)) {
     throw new RemapError(`${fn}: "${text.slice(0, 60)}" is not a map; give the cell holding REMAP.FIT's result or REMAP.SAVE's JSON text.`);
   }
-  const m = recall(text);
-  if (m) return m;
-  const running = inflight.get(text);
-  if (running) return running;
-  const missing = (): never => {
+  return shelf.find(text, () => {
     throw new RemapError(
       `${fn}: no map with handle ${text} is open; recalculate the REMAP.FIT cell that made it, or load its saved JSON with REMAP.LOAD.`,
       'na',
     );
-  };
-  const keeper = currentKeeper();
-  if (!keeper) return missing();
-  const kept = keeper.load(text);
-  const finish = (json: string | null): TransportMap => {
-    if (!json) return missing();
-    const restored = restoreMap(parseMapJSON(json));
-    remember(text, restored);
-    return restored;
-  };
-  return kept instanceof Promise ? kept.then(finish) : finish(kept);
+  });
 }
