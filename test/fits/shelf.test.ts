@@ -51,8 +51,8 @@ describe('Shelf: maps of one kind by handle, most recently used kept', () => {
     ]);
     setKeeper({ load: (h) => saved.get(h) ?? null, save: (h, json) => void saved.set(h, json) });
     const shelf = new Shelf<Item>(restore);
-    expect(shelf.recallOrFit('good', () => new Item('fitted')).id).toBe('kept');
-    expect(shelf.recallOrFit('bad', () => new Item('fitted')).id).toBe('fitted');
+    expect((shelf.recallOrFit('good', () => new Item('fitted')) as Item).id).toBe('kept');
+    expect((shelf.recallOrFit('bad', () => new Item('fitted')) as Item).id).toBe('fitted');
     expect(saved.get('bad')).toBe('{"id":"fitted"}');
   });
 
