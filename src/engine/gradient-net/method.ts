@@ -311,7 +311,8 @@ function frameOf(s: Sample, mean: Float64Array, scale: Float64Array): Frame {
  */
 export const gradientNetMethod: MethodSpec = {
   name: 'gradient-net',
-  summary: 'Neural map that is the gradient of a convex function (monotone by construction), trained on the Sinkhorn divergence; any number of columns.',
+  summary:
+    'Neural map that is the gradient of a convex function (monotone by construction), fitted to the entropic map and kept at its best held-out checkpoint; fast to apply to many rows; any number of columns.',
   shape: 'joint',
   settings: GRADIENT_NET_SETTINGS,
   background: true,
