@@ -2,6 +2,7 @@ import { RemapError } from '../errors';
 import type { Tails } from '../quantile/one-way-map';
 import { SHARE_TOLERANCE } from '../quantile/step-table';
 import { CumulativeWeights } from './cumulative-shares';
+import { knotUnits } from './knot-units';
 
 /**
  * The step method's map under other weights, read only at a fixed set of
@@ -36,12 +37,7 @@ export class StepAtValues {
     this.ty = ty;
     this.xs = xs;
     this.order = order;
-    this.unit = new Int32Array(xs.length);
-    let k = -1;
-    for (let r = 0; r < xs.length; r++) {
-      while (k + 1 < sx.length && sx[k + 1] <= xs[r]) k++;
-      this.unit[r] = k;
-    }
+    this.unit = knotUnits(sx, xs);
   }
 
   /**

@@ -8,6 +8,7 @@ import { QuantileAtValues } from '../../../src/engine/uncertainty/quantile-at-va
 import { ResampleStream } from '../../../src/engine/uncertainty/resample-stream';
 import { StepAtValues } from '../../../src/engine/uncertainty/step-at-values';
 import { sortWithOrder } from '../../../src/engine/stats/sort';
+import { knotUnits } from '../../../src/engine/uncertainty/knot-units';
 
 /** Equal to 1e-12 relative (NaN where the other is NaN). */
 function expectSame(a: ArrayLike<number>, b: ArrayLike<number>): void {
@@ -230,5 +231,12 @@ describe('the resampling stream', () => {
     new ResampleStream(10).uniformCounts(50, 500, c);
     expect(Array.from(a)).toEqual(Array.from(b));
     expect(Array.from(a)).not.toEqual(Array.from(c));
+  });
+});
+
+describe('knotUnits(sx, xs): which stretch between source values each value falls in', () => {
+  test('finds the largest source value at or below each value, -1 below them all', () => {
+    // Source: worked by hand (sx = 1, 2, 4: 0 is below all, 2 and 3 follow 2 at index 1, 9 follows 4 at index 2).
+    expect(Array.from(knotUnits(Float64Array.of(1, 2, 4), Float64Array.of(0, 2, 3, 9)))).toEqual([-1, 1, 1, 2]);
   });
 });
