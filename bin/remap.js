@@ -87,7 +87,24 @@ main(process.argv.slice(2), {
   stderr: out(process.stderr),
   readFile: (p) => fs.readFileSync(p, 'utf8'),
   writeFile: (p, t) => fs.writeFileSync(p, t),
-  readBytes: (p) => fs.readFileSync(p),
+  // Into shared memory: worker threads then read pieces of a large file where it lies, without copies.
+  readBytes: (p) => {
+    const fd = fs.openSync(p, 'r');
+    try {
+      const size = fs.fstatSync(fd).size;
+      if (size === 0) return fs.readFileSync(p); // a pipe or other stream reports no size
+      const bytes = Buffer.from(new SharedArrayBuffer(size));
+      let at = 0;
+      while (at < size) {
+        const got = fs.readSync(fd, bytes, at, size - at, at);
+        if (got === 0) break;
+        at += got;
+      }
+      return at === size ? bytes : fs.readFileSync(p);
+    } finally {
+      fs.closeSync(fd);
+    }
+  },
   openOut: (p) => {
     if (p === null) return { write: (chunk) => process.stdout.write(chunk), close: () => {} };
     const fd = fs.openSync(p, 'w');

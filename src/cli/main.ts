@@ -12,7 +12,10 @@ import { scanNumericBytes, scanNumericCSV } from './numeric-csv';
 import { mapTable } from './numeric-map-file';
 import { sampleFromTable } from './numeric-sample';
 import { CommandUsageError, MORE_COMMANDS, runMoreCommand } from './more-commands';
+import { mapInParallel, scanInParallel, workerCount } from './parallel/parallel-csv';
+import { WorkerPool } from './parallel/pool';
 import { DIALECT_FLAGS, MOMENT_FLAGS, route, SQL_FLAGS, SQL_SUMMARY, type RouteIO } from './route';
+import type { NumericTable } from './numeric-csv';
 
 /**
  * The `remap` command: CSV in, CSV or JSON out, through the same coercion
@@ -27,14 +30,44 @@ class UsageError extends Error {}
 
 const COMMANDS: Record<string, { flags: string[]; summary: string }> = {
   fit: {
-    flags: ['source', 'target', 'method', 'columns', 'source-weights', 'target-weights', 'settings', 'seed', 'tails', 'out', ...MOMENT_FLAGS, ...DIALECT_FLAGS],
+    flags: [
+      'source',
+      'target',
+      'method',
+      'columns',
+      'source-weights',
+      'target-weights',
+      'settings',
+      'seed',
+      'tails',
+      'out',
+      'workers',
+      ...MOMENT_FLAGS,
+      ...DIALECT_FLAGS,
+    ],
     summary:
-      'remap fit --source S.csv --target T.csv [--method M] [--columns a,b] [--source-weights COL] [--target-weights COL] [--settings "k=v; ..."] [--seed N] [--tails clamp|linear] --out model.json',
+      'remap fit --source S.csv --target T.csv [--method M] [--columns a,b] [--source-weights COL] [--target-weights COL] [--settings "k=v; ..."] [--seed N] [--tails clamp|linear] [--workers N] --out model.json',
   },
-  apply: { flags: ['model', 'input', 'out', ...DIALECT_FLAGS], summary: 'remap apply --model model.json --input X.csv [--out Y.csv]' },
-  invert: { flags: ['model', 'input', 'out', ...DIALECT_FLAGS], summary: 'remap invert --model model.json --input Y.csv [--out X.csv]' },
+  apply: { flags: ['model', 'input', 'out', 'workers', ...DIALECT_FLAGS], summary: 'remap apply --model model.json --input X.csv [--out Y.csv] [--workers N]' },
+  invert: {
+    flags: ['model', 'input', 'out', 'workers', ...DIALECT_FLAGS],
+    summary: 'remap invert --model model.json --input Y.csv [--out X.csv] [--workers N]',
+  },
   cost: {
-    flags: ['source', 'target', 'method', 'columns', 'source-weights', 'target-weights', 'settings', 'seed', 'tails', ...MOMENT_FLAGS, ...DIALECT_FLAGS],
+    flags: [
+      'source',
+      'target',
+      'method',
+      'columns',
+      'source-weights',
+      'target-weights',
+      'settings',
+      'seed',
+      'tails',
+      'workers',
+      ...MOMENT_FLAGS,
+      ...DIALECT_FLAGS,
+    ],
     summary: 'remap cost --source S.csv --target T.csv [--method M] [same column, weight and settings options as fit]',
   },
   report: { flags: ['model'], summary: 'remap report --model model.json' },
@@ -149,10 +182,17 @@ function dataColumns(t: Table, columns: string | undefined, exclude: number[]): 
   return out;
 }
 
-function readSide(io: CliIO, path: string, name: 'source' | 'target', flags: Record<string, string>, fn: string): ReadSample & { header: string[] } {
+function readSide(
+  io: CliIO,
+  path: string,
+  name: 'source' | 'target',
+  flags: Record<string, string>,
+  fn: string,
+  scanned?: NumericTable | null,
+): ReadSample & { header: string[] } {
   const wFlag = flags[`${name}-weights`];
-  const input = io.readInput?.(path);
-  const table = input ? scanNumericBytes(input.bytes, path, input.dialect) : scanNumericCSV(readText(io, path), path);
+  const input = scanned === undefined ? io.readInput?.(path) : undefined;
+  const table = scanned !== undefined ? scanned : input ? scanNumericBytes(input.bytes, path, input.dialect) : scanNumericCSV(readText(io, path), path);
   const fast = table && sampleFromTable(table, { columns: flags.columns, weights: wFlag });
   if (fast) return fast;
   const t = readTable(path, readText(io, path));
@@ -172,10 +212,30 @@ function settingsFrom(flags: Record<string, string>): Record<string, unknown> {
   return out;
 }
 
-async function fitFromFlags(io: CliIO, flags: Record<string, string>, command: string): Promise<{ map: TransportMap; reason: string | null }> {
+/**
+ * The CSV file at path read by several threads when it is large (or --workers asks), as `scanNumericBytes` reads it;
+ * undefined when it is read on this thread (readSide does it).
+ */
+async function readInParallel(io: CliIO, path: string, flags: Record<string, string>, threads: Threads): Promise<NumericTable | null | undefined> {
+  const input = io.readInput?.(path);
+  if (!input) return undefined;
+  const workers = workerCount(flags.workers, input.bytes.length);
+  if (workers < 2) return undefined;
+  return scanInParallel(threads.pool(workers), input.bytes, path, input.dialect, flags.workers !== undefined);
+}
+
+async function fitFromFlags(
+  io: CliIO,
+  flags: Record<string, string>,
+  command: string,
+  threads: Threads,
+): Promise<{ map: TransportMap; reason: string | null }> {
   const fn = `remap ${command}`;
-  const s = readSide(io, need(flags, 'source', command), 'source', flags, fn);
-  const t = readSide(io, need(flags, 'target', command), 'target', flags, fn);
+  const sourcePath = need(flags, 'source', command);
+  const targetPath = need(flags, 'target', command);
+  const [sRead, tRead] = await Promise.all([readInParallel(io, sourcePath, flags, threads), readInParallel(io, targetPath, flags, threads)]);
+  const s = readSide(io, sourcePath, 'source', flags, fn, sRead);
+  const t = readSide(io, targetPath, 'target', flags, fn, tRead);
   if (s.columns!.join('\u0000') !== t.columns!.join('\u0000')) {
     throw new RemapError(
       `the source columns (${s.columns!.join(', ')}) and target columns (${t.columns!.join(', ')}) differ; give both files the same column names, or pick them with --columns.`,
@@ -207,13 +267,17 @@ async function fitFromFlags(io: CliIO, flags: Record<string, string>, command: s
 }
 
 function loadModel(io: CliIO, path: string): TransportMap {
+  return loadModelText(io, path).map;
+}
+
+function loadModelText(io: CliIO, path: string): { map: TransportMap; text: string } {
   let text: string;
   try {
     text = io.readFile(path);
   } catch (e) {
     throw new RemapError(`cannot read ${path} (${(e as NodeJS.ErrnoException).code ?? (e as Error).message}); check the path.`);
   }
-  return restoreMap(parseMapJSON(text));
+  return { map: restoreMap(parseMapJSON(text)), text };
 }
 
 /** apply / invert through the general reader: every field a cell, errors worded per cell. */
@@ -262,10 +326,22 @@ function mapCells(map: TransportMap, t: Table, command: 'apply' | 'invert'): { c
 }
 
 /** Maps the columns of an input CSV the model knows, passing other columns through unchanged. */
-function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'invert'): void {
-  const map = loadModel(io, need(flags, 'model', command));
+async function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'invert', threads: Threads): Promise<void> {
+  const { map, text: model } = loadModelText(io, need(flags, 'model', command));
   const inputPath = need(flags, 'input', command);
   const input = io.readInput?.(inputPath);
+  if (input) {
+    // Large inputs: threads read, map and write pieces of the file; the output is the same bytes as on one thread.
+    const workers = workerCount(flags.workers, input.bytes.length);
+    const done =
+      workers > 1 ? await mapInParallel(threads.pool(workers), input.bytes, inputPath, input.dialect, model, command, flags.workers !== undefined) : null;
+    if (done) {
+      writeInPieces(io, flags.out, (sink) => done.pieces.forEach((p) => sink(p)));
+      const outside = extrapolationWarning(map, { n: done.n, d: map.d, data: new Float64Array(0), outside: done.outside }, command);
+      if (outside) io.stderr(`remap: warning: ${oneLine(outside.message)} ${outside.action}\n`);
+      return;
+    }
+  }
   const table = input ? scanNumericBytes(input.bytes, inputPath, input.dialect) : scanNumericCSV(readText(io, inputPath), inputPath);
   const fast = table && mapTable(table, map, command);
   let mapped: Mapped;
@@ -312,20 +388,46 @@ function oneLine(message: string): string {
 }
 
 /** Runs one command; returns the process exit code. */
+/** The command's worker threads, started when a large input first needs them and ended when the command ends. */
+class Threads {
+  private started: WorkerPool | null = null;
+  pool(size: number): WorkerPool {
+    if (!this.started || this.started.size !== size) {
+      void this.started?.close();
+      this.started = new WorkerPool(size);
+    }
+    return this.started;
+  }
+  async close(): Promise<void> {
+    await this.started?.close();
+    this.started = null;
+  }
+}
+
 export async function main(argv: readonly string[], cliIO: CliIO): Promise<number> {
+  const threads = new Threads();
+  try {
+    return await run(argv, cliIO, threads);
+  } finally {
+    await threads.close();
+  }
+}
+
+async function run(argv: readonly string[], cliIO: CliIO, threads: Threads): Promise<number> {
   let command = '';
   let io = cliIO;
   try {
     const parsed = parseArgs(argv);
     command = parsed.command;
     const flags = parsed.flags;
+    if (flags.workers !== undefined) workerCount(flags.workers, 0); // a bad count is reported before any work
     const routed = await route(command, flags, io);
     if ('code' in routed) return routed.code;
     io = routed.io;
     switch (command) {
       case 'fit': {
         const out = need(flags, 'out', 'fit');
-        const { map, reason } = await fitFromFlags(io, flags, 'fit');
+        const { map, reason } = await fitFromFlags(io, flags, 'fit', threads);
         io.writeFile(out, JSON.stringify(map.toJSON()));
         const diag = map.diagnostics();
         io.stderr(
@@ -339,10 +441,10 @@ export async function main(argv: readonly string[], cliIO: CliIO): Promise<numbe
       }
       case 'apply':
       case 'invert':
-        mapFile(io, flags, command);
+        await mapFile(io, flags, command, threads);
         return 0;
       case 'cost': {
-        const { map, reason } = await fitFromFlags(io, flags, 'cost');
+        const { map, reason } = await fitFromFlags(io, flags, 'cost', threads);
         const c = map.cost();
         const diag = map.diagnostics();
         const result: Record<string, unknown> = {

@@ -24,6 +24,8 @@ export interface NumericTable {
   readonly header: string[];
   /** Data rows (the header not counted, trailing empty lines dropped). */
   readonly rows: number;
+  /** Lines read after the header, trailing empty lines included (a piece of a file cut at line ends needs lines = rows). */
+  readonly lines?: number;
   /** Per column: the number (NUMBER, NON_FINITE), or the index into `texts` (TEXT); 0 for BLANK. Length >= rows. */
   readonly values: Float64Array[];
   /** Per column: BLANK, NUMBER, NON_FINITE or TEXT for each row. Length >= rows. */
@@ -54,7 +56,8 @@ let fieldB = 0;
 let fieldQuoted = false;
 // The field just classified.
 let kind = BLANK;
-let value = 0;
+/** The number just read (a typed-array slot: a module-level `let` holding a double is boxed, and each write would allocate). */
+const valueSlot = new Float64Array(1);
 
 /**
  * Reads one field starting at i; returns where it stops (a separator, a line end or the end), or -1 for a quote that never ends.
@@ -151,7 +154,7 @@ function classify(a: number, b: number, quoted: boolean): void {
   while (b > a && isSpace(bytes[b - 1])) b--;
   if (a === b) {
     kind = BLANK;
-    value = 0;
+    valueSlot[0] = 0;
     return;
   }
   const mark = commaDecimal && !quoted ? COMMA : POINT;
@@ -233,15 +236,15 @@ function classify(a: number, b: number, quoted: boolean): void {
     if (markAt >= 0 && bytes[markAt] === COMMA) v = Number(bytes.toString('latin1', a, markAt) + '.' + bytes.toString('latin1', markAt + 1, b));
     else v = Number(bytes.toString('latin1', a, b));
   }
-  value = v;
+  valueSlot[0] = v;
   kind = v - v === 0 ? NUMBER : NON_FINITE;
 }
 
 const SPLIT = 134217729; // 2^27 + 1, Dekker's splitting constant
-/** The double-double error of the last twoProd: a * b = product + tpErr exactly. */
-let tpErr = 0;
+/** The double-double error of the last twoProd: a * b = product + tpErr[0] exactly (a typed-array slot, as valueSlot). */
+const tpErr = new Float64Array(1);
 
-/** a * b rounded, leaving the exact rounding error in tpErr (Dekker, "A floating-point technique for extending the available precision", 1971). */
+/** a * b rounded, leaving the exact rounding error in tpErr[0] (Dekker, "A floating-point technique for extending the available precision", 1971). */
 function twoProd(a: number, b: number): number {
   const p = a * b;
   let t = SPLIT * a;
@@ -250,7 +253,7 @@ function twoProd(a: number, b: number): number {
   t = SPLIT * b;
   const bh = t - (t - b);
   const bl = b - bh;
-  tpErr = ah * bh - p + ah * bl + al * bh + al * bl;
+  tpErr[0] = ah * bh - p + ah * bl + al * bh + al * bl;
   return p;
 }
 
@@ -266,7 +269,7 @@ function toDecimal(m: number, ml: number, scale: number, e10: number): number {
   // hi + lo = m * scale + ml exactly: the product is exact as a pair, and the small integers add exactly.
   const ph = twoProd(m, scale);
   const s = ph + ml;
-  const t = ml - (s - ph) + tpErr;
+  const t = ml - (s - ph) + tpErr[0];
   const hi = s + t;
   const lo = t - (hi - s);
   let A: number;
@@ -274,12 +277,12 @@ function toDecimal(m: number, ml: number, scale: number, e10: number): number {
   if (e10 >= 0) {
     const p = POW10[e10];
     A = twoProd(hi, p);
-    B = tpErr + lo * p;
+    B = tpErr[0] + lo * p;
   } else {
     const q = POW10[-e10];
     A = hi / q;
     const p1 = twoProd(A, q);
-    B = (hi - p1 - tpErr + lo) / q;
+    B = (hi - p1 - tpErr[0] + lo) / q;
   }
   const v = A + B;
   const margin = Math.abs(A) * 8.077935669463161e-28; // 2^-90
@@ -290,14 +293,20 @@ function generic(field: string): void {
   const v = csvCell(field);
   if (v === null) {
     kind = BLANK;
-    value = 0;
+    valueSlot[0] = 0;
   } else if (typeof v === 'number') {
     kind = Number.isFinite(v) ? NUMBER : NON_FINITE;
-    value = v;
+    valueSlot[0] = v;
   } else {
     kind = TEXT;
-    value = -1; // set by the caller
+    valueSlot[0] = -1; // set by the caller
   }
+}
+
+/** Bytes from..to of a file (to exclusive). */
+export interface ByteRange {
+  readonly from: number;
+  readonly to: number;
 }
 
 /** How the file separates fields and writes decimals (the shape of dialect.ts's Dialect). */
@@ -324,22 +333,24 @@ export function scanNumericCSV(text: string, name: string, dialect: ScanDialect 
  * comma and decimal point it reads what dialect.ts's `toStandardCSV` followed by `scanNumericCSV` reads, without
  * rewriting the text first. Cost: O(length), one pass; memory: 9 bytes per cell (a double and a kind) plus the text fields.
  * @param dialect the separator (',', ';' or a tab) and decimal mark ('.' or ',', a comma only with another separator).
+ * @param rows where the rows to read are, when only some of the file's lines are wanted (a piece cut at line ends, after
+ * the header, which is always read from the start): the table then holds those rows only.
  * @returns the table, or null when the general reader must read it (see the top of this file).
  * @example scanNumericBytes(Buffer.from('x;y\n1,5;a\n'), 'f.csv', { delimiter: ';', decimal: ',' }) // header ['x', 'y'], x: 1.5, y: text 'a'
  */
-export function scanNumericBytes(bytes: Uint8Array, name: string, dialect: ScanDialect = STANDARD): NumericTable | null {
+export function scanNumericBytes(bytes: Uint8Array, name: string, dialect: ScanDialect = STANDARD, rows?: ByteRange): NumericTable | null {
   buf = Buffer.isBuffer(bytes) ? bytes : Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   SEP = dialect.delimiter.charCodeAt(0);
   commaDecimal = dialect.decimal === ',' && SEP !== COMMA;
   try {
-    return scan(name);
+    return scan(name, rows);
   } finally {
     buf = Buffer.alloc(0);
   }
 }
 
-function scan(name: string): NumericTable | null {
-  const n = buf.length;
+function scan(name: string, range: ByteRange | undefined): NumericTable | null {
+  let n = buf.length;
   let pos = n >= 3 && buf[0] === 0xef && buf[1] === 0xbb && buf[2] === 0xbf ? 3 : 0;
   const header: string[] = [];
   let headerEmpty = true;
@@ -360,6 +371,11 @@ function scan(name: string): NumericTable | null {
     break;
   }
   if (new Set(header).size !== header.length) return null;
+  if (range) {
+    if (range.from < pos || range.to > n || range.from > range.to) return null;
+    pos = range.from;
+    n = range.to;
+  }
   const width = header.length;
   let cap = 1024;
   const first = pos;
@@ -412,10 +428,10 @@ function scan(name: string): NumericTable | null {
         generic(fieldStr);
       }
       if (kind === TEXT) {
-        value = texts.length;
+        valueSlot[0] = texts.length;
         texts.push(fieldText());
       }
-      values[f][row] = value;
+      values[f][row] = valueSlot[0];
       kinds[f][row] = kind;
       f++;
       pos = end;
@@ -439,5 +455,5 @@ function scan(name: string): NumericTable | null {
     row++;
   }
   if (lastUsed < 0 && headerEmpty) return null;
-  return { name, header, rows: lastUsed + 1, values, kinds, texts };
+  return { name, header, rows: lastUsed + 1, lines: row, values, kinds, texts };
 }

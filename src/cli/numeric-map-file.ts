@@ -1,5 +1,6 @@
 import type { Mapped, TransportMap } from '../engine/map';
 import { quoteField } from './csv';
+import { NUMBER_TEXT_MAX, writeNumber } from './number-text';
 import { BLANK, NUMBER, TEXT, type NumericTable } from './numeric-csv';
 
 /** Bytes written at a time: large enough to be cheap, small enough that the output is never held whole. */
@@ -11,6 +12,7 @@ const PIECE = 1 << 20;
  * writes it (numbers in shortest round-trip form, String(x); other columns as
  * read; a blank to map stays blank). Cost: O(rows x columns) plus the map's;
  * the output is written piece by piece, never held whole.
+ * @param header whether the output starts with the header line (false for a piece of a file after its first).
  * @returns the mapped points and a function that writes the CSV (UTF-8) in pieces of about a megabyte to a sink, or null for what the general
  * path must handle or word as an error: columns that do not match the map,
  * no rows, text or non-finite numbers to map, a row with only some of its
@@ -20,6 +22,7 @@ export function mapTable(
   t: NumericTable,
   map: TransportMap,
   direction: 'apply' | 'invert',
+  header = true,
 ): { mapped: Mapped; write: (sink: (chunk: Uint8Array) => void) => void } | null {
   const names = map.diagnostics().columns;
   let cols: number[];
@@ -52,7 +55,7 @@ export function mapTable(
   const mapped = direction === 'apply' ? map.apply(points) : map.invert(points);
   const out = mapped.data;
   for (let i = 0; i < n * d; i++) if (!Number.isFinite(out[i])) return null;
-  return { mapped, write: (sink) => formatMapped(t, cols, slots, out, d, new Pieces(sink)) };
+  return { mapped, write: (sink) => formatMapped(t, cols, slots, out, d, new Pieces(sink), header) };
 }
 
 /** Output bytes gathered into pieces; each piece is a new buffer, so a sink may keep it. */
@@ -61,7 +64,15 @@ class Pieces {
   private at = 0;
   constructor(private readonly sink: (chunk: Uint8Array) => void) {}
 
-  /** Text that is ASCII (numbers as String(x) writes them, separators). */
+  /** A number as String(x) spells it (writeNumber, or String(x) itself where writeNumber leaves it). */
+  number(x: number): void {
+    if (this.at + NUMBER_TEXT_MAX > PIECE) this.flush();
+    const end = writeNumber(x, this.buf, this.at);
+    if (end >= 0) this.at = end;
+    else this.ascii(String(x));
+  }
+
+  /** Text that is ASCII (separators, numbers as String(x) writes them). */
   ascii(s: string): void {
     const n = s.length;
     if (this.at + n > PIECE) this.flush();
@@ -95,15 +106,15 @@ class Pieces {
 const LF = 10;
 const COMMA = 44;
 
-function formatMapped(t: NumericTable, cols: number[], slots: Int32Array, out: Float64Array, d: number, w: Pieces): void {
+function formatMapped(t: NumericTable, cols: number[], slots: Int32Array, out: Float64Array, d: number, w: Pieces, header: boolean): void {
   const width = t.header.length;
-  w.text(t.header.map(quoteField).join(',') + '\n');
+  if (header) w.text(t.header.map(quoteField).join(',') + '\n');
   const mappedAt = new Int32Array(width).fill(-1);
   cols.forEach((k, j) => (mappedAt[k] = j));
   if (width === 1 && d === 1) {
     for (let i = 0; i < t.rows; i++) {
       const s = slots[i];
-      if (s >= 0) w.ascii(String(out[s]));
+      if (s >= 0) w.number(out[s]);
       w.byte(LF);
     }
   } else {
@@ -113,11 +124,11 @@ function formatMapped(t: NumericTable, cols: number[], slots: Int32Array, out: F
         if (k > 0) w.byte(COMMA);
         const j = mappedAt[k];
         if (j >= 0) {
-          if (s >= 0) w.ascii(String(out[s * d + j]));
+          if (s >= 0) w.number(out[s * d + j]);
         } else {
           const kind = t.kinds[k][i];
           if (kind === TEXT) w.text(quoteField(t.texts[t.values[k][i]]));
-          else if (kind !== BLANK) w.ascii(String(t.values[k][i]));
+          else if (kind !== BLANK) w.number(t.values[k][i]);
         }
       }
       w.byte(LF);
