@@ -1,9 +1,13 @@
 /**
- * Command-line benchmark (run: npx tsx bench/cli.bench.ts; needs `npm run build:cli` first).
+ * Command-line benchmark (run: npm run bench -- cli; needs `npm run build:cli` first).
  * Whole processes of the compiled `remap`: `methods` (goal <= 0.3 s), and fit and apply of
- * 1,048,576 rows from CSV, one column (quantile) and five columns (linear), each against the
- * engine on the same rows plus reading the file(s) once (fs.readFileSync), measured in this run
- * (goal: each <= 3x). Prints the load average and each process's peak memory (maxRSS).
+ * 1,048,576 rows from CSV, one column (quantile) and five columns (linear), on one thread
+ * (--workers 1) and with the automatic thread count (one per processor from 8 MB), each against
+ * the engine on the same rows plus reading the file(s) once (fs.readFileSync), measured in this run
+ * (goal: each <= 3x). The engine's fit is timed twice: the fit alone, and the fit with the map's
+ * saved JSON (toJSON computes the report the command saves: the comparisons after fitting, a
+ * KS statistic over every row); the command's fit is compared with both. Prints the load average,
+ * the processor count, the CPU time of each process and its peak memory (maxRSS).
  * Seeded data, written to a temporary folder.
  */
 import { spawnSync } from 'child_process';
@@ -21,15 +25,16 @@ const load = (): string =>
     .map((v) => v.toFixed(2))
     .join(' ');
 
-/** Seconds and peak resident memory (MB) of one whole `remap` process. */
-function run(args: string[]): { s: number; mb: number } {
+/** Seconds, CPU seconds (all threads) and peak resident memory (MB) of one whole `remap` process. */
+function run(args: string[]): { s: number; cpu: number; mb: number } {
   const t0 = performance.now();
-  // /usr/bin/time is not everywhere: the process reports its own peak through an exit hook.
+  // /usr/bin/time is not everywhere: the process reports its own peak and CPU time through an exit hook.
   const r = spawnSync(process.execPath, ['-r', path.join(__dirname, 'peak-rss.js'), bin, ...args], { encoding: 'utf8', maxBuffer: 1 << 30 });
   const s = (performance.now() - t0) / 1000;
   if (r.status !== 0) throw new Error(`remap ${args.join(' ')} failed: ${r.stderr}`);
   const m = /peak-rss (\d+)/.exec(r.stderr);
-  return { s, mb: m ? Number(m[1]) / 1024 : NaN };
+  const c = /cpu-ms (\d+)/.exec(r.stderr);
+  return { s, cpu: c ? Number(c[1]) / 1000 : NaN, mb: m ? Number(m[1]) / 1024 : NaN };
 }
 
 function writeColumns(file: string, cols: Float64Array[], names: string[]): void {
@@ -66,28 +71,36 @@ async function main(): Promise<void> {
     { label: '1 column, quantile', method: 'quantile', d: 1, src: s, tgt: t, files: ['s.csv', 't.csv'] },
     { label: '5 columns, linear', method: 'linear', d: D, src: interleave(s5), tgt: interleave(t5), files: ['s5.csv', 't5.csv'] },
   ];
+  console.log(`processors: ${os.availableParallelism()}`);
   for (const c of cases) {
     const read2 = readOnce(f(c.files[0]), f(c.files[1]));
     const read1 = readOnce(f(c.files[0]));
     const t1 = performance.now();
     const map = await fitMap(c.method, { n: N, d: c.d, data: c.src, weights: null }, { n: N, d: c.d, data: c.tgt, weights: null });
     const fitE = (performance.now() - t1) / 1000;
+    JSON.stringify(map.toJSON());
+    const fitJ = (performance.now() - t1) / 1000;
     const t2 = performance.now();
     // The rows in another order than fitted: the engine then does the full work of an unseen input.
     map.apply({ n: N, d: c.d, data: reverseRows(c.src, c.d) });
     const applyE = (performance.now() - t2) / 1000;
     map.dispose();
-    const fit = run(['fit', '--method', c.method, '--source', f(c.files[0]), '--target', f(c.files[1]), '--out', f('m.json')]);
-    const apply = run(['apply', '--model', f('m.json'), '--input', f(c.files[0]), '--out', f('y.csv')]);
     console.log(`${c.label}: file ${(fs.statSync(f(c.files[0])).size / 1e6).toFixed(0)} MB; load ${load()}`);
     console.log(`  reading the file(s) once    ${read2.toFixed(2)} s (both) / ${read1.toFixed(2)} s (one)`);
-    console.log(`  engine fit / apply          ${fitE.toFixed(2)} s / ${applyE.toFixed(2)} s`);
-    console.log(
-      `  remap fit (whole process)   ${fit.s.toFixed(2)} s  ${(fit.s / (fitE + read2)).toFixed(1)}x engine + read (goal <= 3x), peak ${fit.mb.toFixed(0)} MB`,
-    );
-    console.log(
-      `  remap apply (whole process) ${apply.s.toFixed(2)} s  ${(apply.s / (applyE + read1)).toFixed(1)}x engine + read (goal <= 3x), peak ${apply.mb.toFixed(0)} MB`,
-    );
+    console.log(`  engine fit / fit + saved JSON / apply   ${fitE.toFixed(2)} s / ${fitJ.toFixed(2)} s / ${applyE.toFixed(2)} s`);
+    for (const workers of ['1', 'auto']) {
+      const more = workers === 'auto' ? [] : ['--workers', workers];
+      const fit = run(['fit', '--method', c.method, '--source', f(c.files[0]), '--target', f(c.files[1]), '--out', f('m.json'), ...more]);
+      const apply = run(['apply', '--model', f('m.json'), '--input', f(c.files[0]), '--out', f('y.csv'), ...more]);
+      const label = workers === '1' ? 'one thread' : 'threads (auto)';
+      console.log(
+        `  remap fit, ${label.padEnd(14)} ${fit.s.toFixed(2)} s (cpu ${fit.cpu.toFixed(2)} s)  ${(fit.s / (fitJ + read2)).toFixed(1)}x engine fit + JSON + read, ` +
+          `${(fit.s / (fitE + read2)).toFixed(1)}x engine fit alone + read (goal <= 3x), peak ${fit.mb.toFixed(0)} MB`,
+      );
+      console.log(
+        `  remap apply, ${label.padEnd(14)} ${apply.s.toFixed(2)} s (cpu ${apply.cpu.toFixed(2)} s)  ${(apply.s / (applyE + read1)).toFixed(1)}x engine + read (goal <= 3x), peak ${apply.mb.toFixed(0)} MB`,
+      );
+    }
   }
   console.log(`load average after: ${load()}`);
   fs.rmSync(dir, { recursive: true, force: true });

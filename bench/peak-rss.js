@@ -1,5 +1,6 @@
 'use strict';
-// Preloaded by bench/cli.bench.ts into each `remap` process: prints the peak resident memory (KB) on exit. Linux's VmHWM is
+// Preloaded by bench/cli.bench.ts into each `remap` process: prints the peak resident memory (KB) and the CPU time of all
+// its threads (ms) on exit. Linux's VmHWM is
 // this process's own peak; maxRSS can carry the peak of the process that started it (fork keeps it across exec).
 const fs = require('fs');
 process.on('exit', () => {
@@ -10,5 +11,6 @@ process.on('exit', () => {
   } catch {
     // not Linux: maxRSS it is
   }
-  process.stderr.write(`peak-rss ${kb}\n`);
+  const cpu = process.cpuUsage();
+  process.stderr.write(`peak-rss ${kb}\ncpu-ms ${Math.round((cpu.user + cpu.system) / 1000)}\n`);
 });
