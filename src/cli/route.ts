@@ -1,5 +1,7 @@
 import { RemapError } from '../engine/errors';
+import { groupedMapToSql } from '../engine/export/grouped-sql';
 import { mapToSql } from '../engine/export/map-sql';
+import { isGroupedMapJSON, parseGroupedMapJSON } from '../engine/groups/grouped-json';
 import { fitLinearFromMoments } from '../engine/linear/from-moments';
 import { parseMapJSON } from '../engine/map-json';
 import { parseSettingsText } from '../engine/settings';
@@ -38,9 +40,9 @@ export interface CsvInput {
 const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 
 /** Options of the commands this module adds or extends. */
-export const SQL_FLAGS = ['model', 'table', 'columns', 'direction', 'suffix', 'quote', 'out'];
+export const SQL_FLAGS = ['model', 'table', 'columns', 'group-column', 'direction', 'suffix', 'quote', 'out'];
 export const SQL_SUMMARY =
-  'remap sql --model model.json --table T [--columns a,b] [--direction apply|invert] [--suffix _mapped] [--quote double|backtick] [--out map.sql]';
+  'remap sql --model model.json --table T [--columns a,b] [--group-column G (a map by group)] [--direction apply|invert] [--suffix _mapped] [--quote double|backtick] [--out map.sql]';
 export const DIALECT_FLAGS = ['delimiter', 'decimal'];
 export const MOMENT_FLAGS = ['source-moments', 'target-moments'];
 
@@ -117,7 +119,13 @@ function readText(io: RouteIO, path: string): string {
 
 /** `remap sql`: the map as SQL for DuckDB, Spark SQL and Trino. */
 function sqlCommand(flags: Record<string, string>, io: RouteIO): number {
-  const json = parseMapJSON(readText(io, need(flags, 'model', SQL_SUMMARY)));
+  const modelText = readText(io, need(flags, 'model', SQL_SUMMARY));
+  let grouped = false;
+  try {
+    grouped = isGroupedMapJSON(JSON.parse(modelText));
+  } catch {
+    grouped = false; // parseMapJSON says what is wrong
+  }
   const direction = (flags.direction ?? 'apply').trim().toLowerCase();
   if (direction !== 'apply' && direction !== 'invert') throw new RemapError(`--direction must be apply or invert, not "${flags.direction}".`);
   const quote = (flags.quote ?? 'double').trim().toLowerCase();
@@ -126,8 +134,23 @@ function sqlCommand(flags: Record<string, string>, io: RouteIO): number {
     ?.split(',')
     .map((c) => c.trim())
     .filter((c) => c !== '');
-  const { select } = mapToSql(json, { table: need(flags, 'table', SQL_SUMMARY), columns, direction, suffix: flags.suffix, quote });
-  const text = `-- remap: ${json.method} map, ${direction === 'apply' ? 'source to target' : 'target to source'}; runs in DuckDB, Spark SQL and Trino.\n${select};\n`;
+  const options = { table: need(flags, 'table', SQL_SUMMARY), columns, direction, suffix: flags.suffix, quote } as const;
+  let select: string;
+  let what: string;
+  if (grouped) {
+    const json = parseGroupedMapJSON(modelText);
+    if (flags['group-column'] === undefined || flags['group-column'].trim() === '') {
+      throw new RemapError(`${flags.model} is a map by group: give the table's column holding each row's group with --group-column. Usage: ${SQL_SUMMARY}`);
+    }
+    select = groupedMapToSql(json, { ...options, groupColumn: flags['group-column'].trim() }).select;
+    what = `${json.method} map by group (${json.groups.length} groups${json.pooled ? ', the pooled map for others' : '; other groups give NULL'})`;
+  } else {
+    if (flags['group-column'] !== undefined) throw new RemapError(`--group-column is for maps by group; ${flags.model} is a single map.`);
+    const json = parseMapJSON(modelText);
+    select = mapToSql(json, options).select;
+    what = `${json.method} map`;
+  }
+  const text = `-- remap: ${what}, ${direction === 'apply' ? 'source to target' : 'target to source'}; runs in DuckDB, Spark SQL and Trino.\n${select};\n`;
   if (flags.out) io.writeFile(flags.out, text);
   else io.stdout(text);
   return 0;

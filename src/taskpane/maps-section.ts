@@ -98,6 +98,9 @@ function sqlForm(m: KeptMap): HTMLDetailsElement {
   };
   const table = field(`sql-table-${key}`, 'Table', 'The table or view holding the rows to map (schema.table works).');
   const columns = field(`sql-columns-${key}`, 'Columns', "The table's columns to map, separated by commas, in the map's order.");
+  // Maps by group only: the column holding each row's group (shown once the map is known to be one).
+  const groupColumn = field(`sql-group-${key}`, 'Group column', "The table's column holding each row's group (text, or whole numbers).");
+  groupColumn.wrap.hidden = true;
   const out = document.createElement('textarea');
   out.readOnly = true;
   out.hidden = true;
@@ -117,7 +120,7 @@ function sqlForm(m: KeptMap): HTMLDetailsElement {
   const sql = async (): Promise<string> => {
     const json = await pane.store.load(m.handle);
     if (!json) throw new Error(`The map ${m.handle} is no longer in this workbook.`);
-    return mapSqlText(json, table.input.value, columns.input.value);
+    return mapSqlText(json, table.input.value, columns.input.value, groupColumn.input.value);
   };
   button('Copy SQL', () => void copySql(sql, out));
   button('Save SQL', () => void saveSql(sql, m));
@@ -128,11 +131,15 @@ function sqlForm(m: KeptMap): HTMLDetailsElement {
         const d = sqlDefaults(json ?? '');
         table.input.value = d.table;
         columns.input.value = d.columns;
+        if (d.groupColumn !== null) {
+          groupColumn.input.value = d.groupColumn;
+          groupColumn.wrap.hidden = false;
+        }
       },
       () => undefined,
     );
   });
-  details.append(summary, table.wrap, columns.wrap, actions, out);
+  details.append(summary, table.wrap, columns.wrap, groupColumn.wrap, actions, out);
   return details;
 }
 

@@ -1,6 +1,6 @@
 import { fitGroupedMapSync } from '../../src/engine/groups/fit-grouped';
 import { fitMapSync } from '../../src/engine/methods';
-import { DEFAULT_SQL_TABLE, mapSqlText, sqlDefaults } from '../../src/taskpane/sql-export';
+import { DEFAULT_SQL_GROUP_COLUMN, DEFAULT_SQL_TABLE, mapSqlText, sqlDefaults } from '../../src/taskpane/sql-export';
 
 const sample = (xs: number[]) => ({ n: xs.length, d: 1, data: Float64Array.from(xs), weights: null });
 const sample2 = (rows: number[][]) => ({ n: rows.length, d: 2, data: Float64Array.from(rows.flat()), weights: null });
@@ -11,10 +11,10 @@ const quantileJson = (columns?: string[]) =>
 describe("the pane's Copy SQL and Save SQL", () => {
   test("the columns offered are the map's own column names; without names, x1..xd", () => {
     // Source: design choice: the defaults the pane fills in before the user edits them
-    expect(sqlDefaults(quantileJson(['income']))).toEqual({ table: DEFAULT_SQL_TABLE, columns: 'income' });
+    expect(sqlDefaults(quantileJson(['income']))).toEqual({ table: DEFAULT_SQL_TABLE, columns: 'income', groupColumn: null });
     const rows = xs.map((x) => [x, (x * 7) % 11]);
     const linear = JSON.stringify(fitMapSync('linear', sample2(rows), sample2(rows.map(([a, b]) => [a + 1, b * 2])), {}).toJSON());
-    expect(sqlDefaults(linear)).toEqual({ table: DEFAULT_SQL_TABLE, columns: 'x1, x2' });
+    expect(sqlDefaults(linear)).toEqual({ table: DEFAULT_SQL_TABLE, columns: 'x1, x2', groupColumn: null });
   });
 
   test('the SQL selects from the table given and names the mapped column after the column given; one statement, ending with ;', () => {
@@ -36,7 +36,7 @@ describe("the pane's Copy SQL and Save SQL", () => {
     expect(() => mapSqlText(quantileJson(), 't', 'a,,b')).toThrow(/empty name/);
   });
 
-  test('a map by group is refused with what to do instead', () => {
+  test('a map by group: the group column offered and required, then SQL that joins each group to its own knots', () => {
     const g = fitGroupedMapSync(
       'quantile',
       sample(xs),
@@ -44,7 +44,14 @@ describe("the pane's Copy SQL and Save SQL", () => {
       sample(xs),
       xs.map((x) => (x < 20 ? 'a' : 'b')),
     );
-    // Source: design choice: SQL export covers single maps only in this version
-    expect(() => mapSqlText(JSON.stringify(g.toJSON()), 't', 'a')).toThrow(/map by group is not written as SQL.*remap apply-groups/);
+    const json = JSON.stringify(g.toJSON());
+    // Source: design choice: a map by group gets a placeholder group column; a single map none.
+    expect(sqlDefaults(json)).toEqual({ table: DEFAULT_SQL_TABLE, columns: 'x1', groupColumn: DEFAULT_SQL_GROUP_COLUMN });
+    expect(sqlDefaults(quantileJson(['income'])).groupColumn).toBeNull();
+    expect(() => mapSqlText(json, 't', 'a', ' ')).toThrow(/group column is empty/);
+    const sql = mapSqlText(json, 't', 'a', 'region');
+    // Source: design choice: the group is the table's column as trimmed text, joined to the stacked tables of the groups.
+    expect(sql).toContain('LEFT JOIN remap_c0_p ON remap_c0_p.grp = TRIM(CAST(t.region AS VARCHAR))');
+    expect(sql).toMatch(/\('a', .*\),\n\s+\('b', /);
   });
 });

@@ -48,14 +48,66 @@ export interface KnotSql {
  *   // 'CASE WHEN x IS NULL THEN NULL WHEN x < 0E0 THEN 0E0 ... ELSE LEAST(c0_s.y1, c0_s.y0 + (c0_s.y1 - c0_s.y0) * ((x - c0_s.x0) / (c0_s.x1 - c0_s.x0))) END'
  */
 export function knotSql(t: KnotTable, x: string, tails: 'clamp' | 'linear', id: string, where: string): KnotSql {
-  const { keys, vals, kind, lo, hi } = t;
+  const k = knotParts(t, where);
+  const n = sqlNumber;
+  const below = tails === 'linear' ? `${n(k.first)} + ${n(k.slopeLo)} * (${x} - ${n(k.lo)})` : n(k.first);
+  const above = tails === 'linear' ? `${n(k.last)} + ${n(k.slopeHi)} * (${x} - ${n(k.hi)})` : n(k.last);
+  const head = `CASE WHEN ${x} IS NULL THEN NULL WHEN ${x} < ${n(k.lo)} THEN ${below} WHEN ${x} > ${n(k.hi)} THEN ${above} WHEN ${x} < ${n(k.k0)} THEN ${n(k.first)} WHEN ${x} >= ${n(k.kEnd)} THEN ${n(k.last)}`;
+  if (k.grid.length === 0) return { ctes: [], joins: [], expression: `${head} ELSE ${n(k.first)} END` };
+  const g = `${id}_g`;
+  const c = `${id}_s`;
+  const ctes = [
+    `${g} AS (SELECT * FROM (VALUES\n    ${k.grid.map((r) => `(${r[0]}, ${n(r[1])}, ${n(r[2])}, ${r[3]}, ${r[4]})`).join(',\n    ')}) AS v(q, start, scale, base, m))`,
+    `${c} AS (SELECT * FROM (VALUES\n    ${k.cells.map((r) => `(${r[0]}, ${n(r[1])}, ${n(r[2])}, ${n(r[3])}, ${n(r[4])})`).join(',\n    ')}) AS v(cell, x0, x1, y0, y1))`,
+  ];
+  const bucket = `CASE WHEN ${x} >= ${n(k.k0)} AND ${x} < ${n(k.kEnd)} THEN LEAST(${k.buckets - 1}, CAST(FLOOR((${x} - ${n(k.k0)}) * ${n(k.scale)}) AS BIGINT)) END`;
+  const joins = [`LEFT JOIN ${g} ON ${g}.q = ${bucket}`, `LEFT JOIN ${c} ON ${cellJoin(c, g, x)}`];
+  return { ctes, joins, expression: `${head} ELSE ${insideSql(t.kind, c, x)} END` };
+}
+
+/** The join condition that picks the one segment of x's cell: the cell id from the bucket row g, then the range. */
+export function cellJoin(c: string, g: string, x: string): string {
+  return `${c}.cell = ${g}.base + GREATEST(0, LEAST(${g}.m - 1, CAST(FLOOR((${x} - ${g}.start) * ${g}.scale) AS BIGINT))) AND ${x} >= ${c}.x0 AND ${x} < ${c}.x1`;
+}
+
+/** The value inside the knots, from the segment row c: its start value (step) or the capped interpolation (linear), as OneWayMap computes it. */
+export function insideSql(kind: 'linear' | 'step', c: string, x: string): string {
+  return kind === 'step' ? `${c}.y0` : `LEAST(${c}.y1, ${c}.y0 + (${c}.y1 - ${c}.y0) * ((${x} - ${c}.x0) / (${c}.x1 - ${c}.x0)))`;
+}
+
+/** The numbers of one column's knot map in SQL: its ends and tails, its bucket grid and its cells (see `knotSql`). */
+export interface KnotParts {
+  readonly first: number;
+  readonly last: number;
+  readonly slopeLo: number;
+  readonly slopeHi: number;
+  readonly lo: number;
+  readonly hi: number;
+  /** The first and last knot. */
+  readonly k0: number;
+  readonly kEnd: number;
+  /** Buckets of the level-1 grid and their scale (buckets per unit of x). */
+  readonly buckets: number;
+  readonly scale: number;
+  /** Rows (q, start, scale, base, m) of the level-1 grid; empty when every knot is at one value. */
+  readonly grid: number[][];
+  /** Rows (cell, x0, x1, y0, y1) of the segments. */
+  readonly cells: number[][];
+}
+
+/**
+ * The tables and end values `knotSql` writes, as numbers (a map by group stacks them, one set per group). O(K).
+ * @throws RemapError when there are more than MAX_SQL_KNOTS knots (fit with the knots setting to make the map compact).
+ * @example knotParts({ keys: [0, 1], vals: [0, 10], kind: 'linear', lo: 0, hi: 1 }, 'a').cells // [[0, 0, 1, 0, 10]]
+ */
+export function knotParts(t: KnotTable, where: string): KnotParts {
+  const { keys, vals, lo, hi } = t;
   const K = keys.length;
   if (K > MAX_SQL_KNOTS) {
     throw new RemapError(
       `SQL export (${where}): the map keeps ${K} knots, more than the ${MAX_SQL_KNOTS} SQL export writes; fit it again with the setting knots=2000 (a compact map, its error stated in its report) and export that.`,
     );
   }
-  const n = sqlNumber;
   const first = vals[0];
   const last = vals[K - 1];
   // The end slopes, found as OneWayMap finds them (first and last segment of positive width).
@@ -65,12 +117,11 @@ export function knotSql(t: KnotTable, x: string, tails: 'clamp' | 'linear', id: 
   let b = K - 1;
   while (b > 0 && !(keys[b] > keys[b - 1])) b--;
   const slopeHi = b > 0 ? (vals[b] - vals[b - 1]) / (keys[b] - keys[b - 1]) : 0;
-  const below = tails === 'linear' ? `${n(first)} + ${n(slopeLo)} * (${x} - ${n(lo)})` : n(first);
-  const above = tails === 'linear' ? `${n(last)} + ${n(slopeHi)} * (${x} - ${n(hi)})` : n(last);
-  const head = `CASE WHEN ${x} IS NULL THEN NULL WHEN ${x} < ${n(lo)} THEN ${below} WHEN ${x} > ${n(hi)} THEN ${above} WHEN ${x} < ${n(keys[0])} THEN ${n(first)} WHEN ${x} >= ${n(keys[K - 1])} THEN ${n(last)}`;
   const k0 = keys[0];
-  const range = keys[K - 1] - k0;
-  if (!(range > 0)) return { ctes: [], joins: [], expression: `${head} ELSE ${n(first)} END` };
+  const kEnd = keys[K - 1];
+  const range = kEnd - k0;
+  const ends = { first, last, slopeLo, slopeHi, lo, hi, k0, kEnd };
+  if (!(range > 0)) return { ...ends, buckets: 1, scale: 0, grid: [], cells: [] };
 
   // Segments of positive width: [x0, x1) -> y0 + (y1 - y0) ((x - x0) / (x1 - x0)), capped at y1, as OneWayMap computes it.
   const segs: number[] = [];
@@ -82,8 +133,8 @@ export function knotSql(t: KnotTable, x: string, tails: 'clamp' | 'linear', id: 
   // Level 1: the segments overlapping each bucket (a superset: buckets q(x0) .. q(x1)).
   const byBucket: number[][] = Array.from({ length: B }, () => []);
   for (const k of segs) for (let q = q1(keys[k]); q <= q1(keys[k + 1]); q++) byBucket[q].push(k);
-  const grid: string[] = [];
-  const cells: string[] = [];
+  const grid: number[][] = [];
+  const cells: number[][] = [];
   let base = 0;
   for (let q = 0; q < B; q++) {
     const list = byBucket[q];
@@ -93,25 +144,11 @@ export function knotSql(t: KnotTable, x: string, tails: 'clamp' | 'linear', id: 
     const m = list.length;
     const s2 = m / width;
     const q2 = (v: number): number => Math.max(0, Math.min(m - 1, Math.floor((v - start) * s2)));
-    grid.push(`(${q}, ${n(start)}, ${n(s2)}, ${base}, ${m})`);
+    grid.push([q, start, s2, base, m]);
     for (const k of list) {
-      for (let r = q2(keys[k]); r <= q2(keys[k + 1]); r++) {
-        cells.push(`(${base + r}, ${n(keys[k])}, ${n(keys[k + 1])}, ${n(vals[k])}, ${n(vals[k + 1])})`);
-      }
+      for (let r = q2(keys[k]); r <= q2(keys[k + 1]); r++) cells.push([base + r, keys[k], keys[k + 1], vals[k], vals[k + 1]]);
     }
     base += m;
   }
-  const g = `${id}_g`;
-  const c = `${id}_s`;
-  const ctes = [
-    `${g} AS (SELECT * FROM (VALUES\n    ${grid.join(',\n    ')}) AS v(q, start, scale, base, m))`,
-    `${c} AS (SELECT * FROM (VALUES\n    ${cells.join(',\n    ')}) AS v(cell, x0, x1, y0, y1))`,
-  ];
-  const bucket = `CASE WHEN ${x} >= ${n(k0)} AND ${x} < ${n(keys[K - 1])} THEN LEAST(${B - 1}, CAST(FLOOR((${x} - ${n(k0)}) * ${n(s1)}) AS BIGINT)) END`;
-  const joins = [
-    `LEFT JOIN ${g} ON ${g}.q = ${bucket}`,
-    `LEFT JOIN ${c} ON ${c}.cell = ${g}.base + GREATEST(0, LEAST(${g}.m - 1, CAST(FLOOR((${x} - ${g}.start) * ${g}.scale) AS BIGINT))) AND ${x} >= ${c}.x0 AND ${x} < ${c}.x1`,
-  ];
-  const inside = kind === 'step' ? `${c}.y0` : `LEAST(${c}.y1, ${c}.y0 + (${c}.y1 - ${c}.y0) * ((${x} - ${c}.x0) / (${c}.x1 - ${c}.x0)))`;
-  return { ctes, joins, expression: `${head} ELSE ${inside} END` };
+  return { ...ends, buckets: B, scale: s1, grid, cells };
 }

@@ -47,43 +47,90 @@ export interface MapSql {
  *   //   + '  CASE WHEN CAST(t.income AS DOUBLE) IS NULL ... END AS income_mapped\nFROM wave2 AS t\nLEFT JOIN ...'
  */
 export function mapToSql(json: MapJSON, options: SqlOptions): MapSql {
+  const f = exportFrame(json.method, json.d, json.columns, options);
+  // Every parameter is checked by the method's own reader before any is written out.
+  restoreMap(json).dispose();
+  const { expressions, ctes, joins } = mapExpressions(json, f.inputs, f.names, f.direction, 'remap');
+  return selectText(f, options.table, expressions, ctes, joins);
+}
+
+/** What every SQL export settles first: the direction, the quoting, the columns to map (as SQL inputs) and the result names. */
+export interface ExportFrame {
+  readonly direction: 'apply' | 'invert';
+  readonly style: QuoteStyle;
+  readonly names: readonly string[];
+  readonly inputs: readonly string[];
+  readonly outputs: readonly string[];
+}
+
+/**
+ * Checks the options of an export of a map (or a map by group) of `method` on d columns and settles them.
+ * @throws RemapError for entropic or pairs (saying what to do instead), gradient-net inverted, a bad direction, a column list
+ *   of the wrong length, a map without column names and no list, or a suffix with a line break.
+ */
+export function exportFrame(method: string, d: number, columns: readonly string[] | null, options: SqlOptions): ExportFrame {
   const direction = options.direction ?? 'apply';
-  const fn = `SQL export (${json.method})`;
-  if (json.method === 'entropic' || json.method === 'pairs') {
+  const fn = `SQL export (${method})`;
+  if (method === 'entropic' || method === 'pairs') {
     throw new RemapError(
-      `${fn}: a${json.method === 'entropic' ? 'n entropic' : ' pairs'} map cannot be written as SQL, since applying it needs every fitted row (${json.method === 'entropic' ? 'a weighted sum over the target sample' : 'a look-up of the matched rows'}); apply it with \`remap apply\`, or fit a gradient-net map (which SQL export writes as arithmetic) or a linear map to the same data and export that.`,
+      `${fn}: a${method === 'entropic' ? 'n entropic' : ' pairs'} map cannot be written as SQL, since applying it needs every fitted row (${method === 'entropic' ? 'a weighted sum over the target sample' : 'a look-up of the matched rows'}); apply it with \`remap apply\`, or fit a gradient-net map (which SQL export writes as arithmetic) or a linear map to the same data and export that.`,
     );
   }
-  if (direction === 'invert' && json.method === 'gradient-net') {
+  if (direction === 'invert' && method === 'gradient-net') {
     throw new RemapError(
       `${fn}: the inverse of a gradient-net map has no closed form (the engine solves for it by Newton's method), so it cannot be written as SQL; invert with \`remap invert\`, or fit the map the other way (target to source) and export that.`,
     );
   }
   if (direction !== 'apply' && direction !== 'invert') throw new RemapError(`${fn}: the direction must be apply or invert, not "${String(direction)}".`);
-  // Every parameter is checked by the method's own reader before any is written out.
-  restoreMap(json).dispose();
   const style: QuoteStyle = options.quote ?? 'double';
-  const names = options.columns ?? json.columns;
-  if (!names) throw new RemapError(`${fn}: the map was fitted without column names; give the table's columns to map (${json.d} of them), in the map's order.`);
-  if (names.length !== json.d) {
+  const names = options.columns ?? columns;
+  if (!names) throw new RemapError(`${fn}: the map was fitted without column names; give the table's columns to map (${d} of them), in the map's order.`);
+  if (names.length !== d) {
     throw new RemapError(
-      `${fn}: ${names.length} column${names.length === 1 ? ' was' : 's were'} given (${names.join(', ')}) but the map takes ${json.d}; give ${json.d}, in the map's order${json.columns ? ` (${json.columns.join(', ')})` : ''}.`,
+      `${fn}: ${names.length} column${names.length === 1 ? ' was' : 's were'} given (${names.join(', ')}) but the map takes ${d}; give ${d}, in the map's order${columns ? ` (${columns.join(', ')})` : ''}.`,
     );
   }
   const suffix = options.suffix ?? '_mapped';
   if (/[\r\n]/.test(suffix)) throw new RemapError(`${fn}: the suffix ${JSON.stringify(suffix)} holds a line break; give a plain word such as _mapped.`);
   const inputs = names.map((c) => `CAST(t.${sqlName(c, style)} AS DOUBLE)`);
+  return { direction, style, names, inputs, outputs: names.map((c) => c + suffix) };
+}
+
+/** `[WITH tables] SELECT t.*, expressions AS outputs FROM table AS t [joins]`. O(text). */
+export function selectText(f: ExportFrame, table: string, expressions: readonly string[], ctes: readonly string[], joins: readonly string[]): MapSql {
+  const { outputs, style } = f;
+  const lines = expressions.map((e, k) => `  ${e} AS ${sqlName(outputs[k], style)}`);
+  const withClause = ctes.length > 0 ? `WITH ${ctes.join(',\n')}\n` : '';
+  const joinText = joins.map((j) => '\n' + j).join('');
+  const select = `${withClause}SELECT t.*,\n${lines.join(',\n')}\nFROM ${sqlName(table, style, true)} AS t${joinText}`;
+  return { select, outputs: [...outputs] };
+}
+
+/** A map's result columns as SQL expressions, with the tables (for a WITH clause) and joins they need. */
+export interface MapExpressions {
+  readonly expressions: string[];
+  readonly ctes: string[];
+  readonly joins: string[];
+}
+
+/**
+ * The SQL expressions of one map (quantile, step, ordinal, linear, gradient-net; checked by the caller) at the given
+ * inputs, one per column, with the WITH tables and joins its knot maps need, named `<id>_c<k>_g` and `<id>_c<k>_s`.
+ * O(size of the map).
+ * @example mapExpressions(linearJson, ['x0', 'x1'], ['a', 'b'], 'apply', 'remap').expressions[0] // '<m2_0> + (<a00> * (x0 - <m1_0>) + ...)'
+ */
+export function mapExpressions(json: MapJSON, inputs: readonly string[], names: readonly string[], direction: 'apply' | 'invert', id: string): MapExpressions {
   const tails = json.settings.tails === 'linear' ? 'linear' : 'clamp';
-  let expressions: string[];
   const ctes: string[] = [];
   const joins: string[] = [];
+  let expressions: string[];
   switch (json.method) {
     case 'quantile':
     case 'step':
     case 'ordinal': {
       const cols = (json.params as { columns: Record<string, number[]>[] }).columns;
       expressions = cols.map((p, k) => {
-        const part = knotSql(knotTable(json.method, p, direction), inputs[k], tails, `remap_c${k}`, `column ${names[k]}`);
+        const part = knotSql(knotTable(json.method, p, direction), inputs[k], tails, `${id}_c${k}`, `column ${names[k]}`);
         ctes.push(...part.ctes);
         joins.push(...part.joins);
         return part.expression;
@@ -101,18 +148,13 @@ export function mapToSql(json: MapJSON, options: SqlOptions): MapSql {
       break;
     }
     default:
-      throw new RemapError(`${fn}: this method cannot be written as SQL; apply the map with \`remap apply\`.`);
+      throw new RemapError(`SQL export (${json.method}): this method cannot be written as SQL; apply the map with \`remap apply\`.`);
   }
-  const outputs = names.map((c) => c + suffix);
-  const lines = expressions.map((e, k) => `  ${e} AS ${sqlName(outputs[k], style)}`);
-  const withClause = ctes.length > 0 ? `WITH ${ctes.join(',\n')}\n` : '';
-  const joinText = joins.map((j) => '\n' + j).join('');
-  const select = `${withClause}SELECT t.*,\n${lines.join(',\n')}\nFROM ${sqlName(options.table, style, true)} AS t${joinText}`;
-  return { select, outputs };
+  return { expressions, ctes, joins };
 }
 
 /** One direction of a saved 1-D column, in the terms of `knotSQL` (the same knots and range the engine's OneWayMap holds). */
-function knotTable(method: string, p: Record<string, number[]>, direction: 'apply' | 'invert'): KnotTable {
+export function knotTable(method: string, p: Record<string, number[]>, direction: 'apply' | 'invert'): KnotTable {
   const fwd = direction === 'apply';
   switch (method) {
     case 'quantile':
@@ -132,13 +174,21 @@ function knotTable(method: string, p: Record<string, number[]>, direction: 'appl
 
 /** to + M (x - from), each output summed over k in order as affineApply sums it. O(d^2) text. */
 function affineSQL(inputs: readonly string[], from: readonly number[], matrix: readonly number[], to: readonly number[]): string[] {
+  return affineTerms(inputs, from.map(sqlNumber), Array.from(matrix, sqlNumber), to.map(sqlNumber));
+}
+
+/**
+ * to_l + (M_l0 (x_0 - from_0) + M_l1 (x_1 - from_1) + ...) for each l, with each coefficient given as SQL (a literal,
+ * or a column of a joined table for a map by group): the sums in affineApply's order. O(d^2) text.
+ */
+export function affineTerms(inputs: readonly string[], from: readonly string[], matrix: readonly string[], to: readonly string[]): string[] {
   const d = inputs.length;
-  const diff = inputs.map((x, k) => `(${x} - ${sqlNumber(from[k])})`);
+  const diff = inputs.map((x, k) => `(${x} - ${from[k]})`);
   const out: string[] = [];
   for (let l = 0; l < d; l++) {
-    let s = `${sqlNumber(matrix[l * d])} * ${diff[0]}`;
-    for (let k = 1; k < d; k++) s = `${s} + ${sqlNumber(matrix[l * d + k])} * ${diff[k]}`;
-    out.push(`${sqlNumber(to[l])} + (${s})`);
+    let s = `${matrix[l * d]} * ${diff[0]}`;
+    for (let k = 1; k < d; k++) s = `${s} + ${matrix[l * d + k]} * ${diff[k]}`;
+    out.push(`${to[l]} + (${s})`);
   }
   return out;
 }

@@ -80,7 +80,7 @@ function draws(seed: number, n: number, f: (r: Random) => number): number[] {
   return Array.from({ length: n }, () => f(r));
 }
 
-// Source: the task's acceptance bound, 1e-9 relative (design choice: relative to max(|value|, 1)).
+// Source: design choice: within 1e-9 relative to max(|value|, 1).
 const TOL = 1e-9;
 
 describe("SQL export run in DuckDB on 1,000,000 rows equals the engine's apply", () => {
