@@ -5,7 +5,7 @@ import type { MethodSpec } from './method';
 import type { Sample } from './points';
 import { resolveSettings, type SettingSpec, type Settings } from './settings';
 import { outsideBothTails } from './outside';
-import { checkSameColumns, checkSample, checkScale } from './validate';
+import { asSample, checkSameColumns, checkSample, checkScale } from './validate';
 import { entropicMethod } from './entropic/method';
 import { gradientNetMethod } from './gradient-net/method';
 import { linearMethod } from './linear/method';
@@ -101,9 +101,12 @@ export function startFit(
   ctx: FitContext = {},
 ): TransportMap | Promise<TransportMap> {
   const method = getMethod(name);
-  const settings = prepareFit(method, source, target, rawSettings);
-  const r = method.fit(source, target, settings, ctx);
-  return r instanceof Promise ? r.then((m) => withSamples(m, source, target)) : withSamples(r, source, target);
+  const fn = `fit (${method.name})`;
+  const s = asSample(source, 'source', fn);
+  const t = asSample(target, 'target', fn);
+  const settings = prepareFit(method, s, t, rawSettings);
+  const r = method.fit(s, t, settings, ctx);
+  return r instanceof Promise ? r.then((m) => withSamples(m, s, t)) : withSamples(r, s, t);
 }
 
 /** Lets a fitted map compare its mapped source with the target when diagnostics are asked for. */

@@ -2,6 +2,24 @@ import { RemapError } from './errors';
 import type { Points, Sample } from './points';
 
 /**
+ * A sample as the engine's own code reads it, from whatever a caller built: `n` and `d` whole numbers, `data` n x d
+ * finite-or-not numbers (checked later), `weights` null when absent (a hand-built sample may leave the field out).
+ * Returns the same object when it is already in that form, else a shallow copy (the data are never copied). O(1).
+ * @throws RemapError when the shape is not that of a sample (what it lacks, and how to build one: `sample(rows)`).
+ * @example asSample({ n: 2, d: 1, data: Float64Array.of(1, 2) }, 'source', 'fit (quantile)').weights // null
+ */
+export function asSample(s: Sample, name: string, fn: string): Sample {
+  const bad = (what: string): never => {
+    throw new RemapError(`${fn}: the ${name} ${what}; build samples with sample(rows) or give { n, d, data: Float64Array of n x d numbers, weights: null }.`);
+  };
+  if (typeof s !== 'object' || s === null) bad('is not a sample');
+  if (!Number.isInteger(s.n) || s.n < 0 || !Number.isInteger(s.d) || s.d < 0) bad('has no whole-number row and column counts (n, d)');
+  if (!s.data || typeof s.data.length !== 'number' || s.data.length !== s.n * s.d) bad(`data do not hold n x d = ${s.n * s.d} numbers`);
+  if (s.weights !== null && s.weights !== undefined && typeof s.weights.length !== 'number') bad('weights are neither null nor a list of numbers');
+  return s.weights === undefined ? { ...s, weights: null } : s;
+}
+
+/**
  * Checks a sample before fitting: finite values, weights non-negative, finite,
  * not all zero, at least `minRows` rows with positive weight. `name` ("source",
  * "target") goes into messages. O(n d).

@@ -1,5 +1,5 @@
 import { checkSameColumns, checkSample, checkScale, MAX_ABS_VALUE, MIN_SPREAD } from '../../src/engine/validate';
-import { sample } from '../../src/engine/points';
+import { sample, type Sample } from '../../src/engine/points';
 import { fitMap } from '../../src/engine/methods';
 
 describe('validate', () => {
@@ -56,5 +56,26 @@ describe('validate', () => {
     for (const m of ['entropic', 'gradient-net', 'pairs']) {
       await expect(fitMap(m, sample(xs), sample(ys))).rejects.toMatchObject({ kind: 'num', message: expect.stringMatching(/rescale/) });
     }
+  });
+});
+
+describe('samples built by hand', () => {
+  test('a sample without a weights field fits as one with weights: null, for every kind of method', async () => {
+    // Design choice: rows from a fixed formula.
+    const src = { n: 30, d: 2, data: Float64Array.from({ length: 60 }, (_, i) => Math.sin(i)) };
+    const tgt = { n: 30, d: 2, data: Float64Array.from({ length: 60 }, (_, i) => Math.cos(i) * 2) };
+    for (const method of ['quantile', 'linear', 'pairs']) {
+      const bare = await fitMap(method, src as unknown as Sample, tgt as unknown as Sample);
+      const built = await fitMap(method, { ...src, weights: null }, { ...tgt, weights: null });
+      // Source: design choice: a missing weights field means unweighted rows, the same map as weights: null.
+      expect(bare.cost().w2Squared).toBe(built.cost().w2Squared);
+    }
+  });
+
+  test('a sample of the wrong shape is refused with how to build one', async () => {
+    const bad = { n: 3, d: 2, data: Float64Array.of(1, 2, 3) } as unknown as Sample;
+    const ok = { n: 3, d: 2, data: Float64Array.of(1, 2, 3, 4, 5, 6), weights: null };
+    await expect(fitMap('linear', bad, ok)).rejects.toThrow(/the source data do not hold n x d = 6 numbers; build samples with sample\(rows\)/);
+    await expect(fitMap('quantile', ok, { n: 3, d: 2 } as unknown as Sample)).rejects.toThrow(/the target data do not hold/);
   });
 });

@@ -1,4 +1,5 @@
 import { RemapError } from '../errors';
+import { asSample } from '../validate';
 import type { FitContext, TransportMap } from '../map';
 import type { MethodSpec } from '../method';
 import { fitMapSync, getMethod, prepareFit, startFit } from '../methods';
@@ -135,6 +136,8 @@ function planGroups(
   const fn = `fit by group (${spec.name})`;
   const fallback = options.fallback ?? 'none';
   if (fallback !== 'none' && fallback !== 'pooled') throw new RemapError(`${fn}: the fallback is "${String(fallback)}"; choose none or pooled.`);
+  source = asSample(source, 'source', fn);
+  target = asSample(target, 'target', fn);
   prepareFit(spec, source, target, settings); // checks both whole samples and the settings once
   const s = groupRows(sourceGroups, source.n, 'source group labels', fn);
   const t = groupRows(targetGroups, target.n, 'target group labels', fn);

@@ -1,4 +1,5 @@
 import { RemapError } from '../errors';
+import { asSample } from '../validate';
 import { fitMapSync, getMethod, prepareFit } from '../methods';
 import type { Points, Sample } from '../points';
 import { ReplicateFitter, type BoundedMethod } from './replicate-fitter';
@@ -30,6 +31,8 @@ export function prepareBounds(
     throw new RemapError(`${fn}: bounds are made for the quantile, step, ordinal and linear methods, not ${spec.name}; choose one of those.`);
   }
   if (!(level > 0 && level < 1)) throw new RemapError(`${fn}: the level is ${level}; give a share between 0 and 1, such as 0.95 for 95 %.`);
+  source = asSample(source, 'source', fn);
+  target = asSample(target, 'target', fn);
   const resolved = prepareFit(spec, source, target, settings);
   if (values.d !== source.d) throw new RemapError(`${fn}: the values have ${values.d} columns but the samples ${source.d}; give values with the same columns.`);
   if (values.n < 1) throw new RemapError(`${fn}: there are no values to bound; give at least one.`);
