@@ -1,3 +1,4 @@
+import { noteCellMap } from './cell-maps';
 import { RemapError } from '../engine/errors';
 import { Fingerprint } from '../engine/fingerprint';
 import { fitGroupedMap, fitGroupedMapSync } from '../engine/groups/fit-grouped';
@@ -98,6 +99,8 @@ export function fitGrouped(g: GroupedFitInputs, valueGroups?: readonly GroupLabe
     }
     throw e;
   };
+  // The cell's address (REMAP.FITGROUPS, REMAP.BYGROUP) lets the pane list this formula with its map's warnings.
+  if (run.cell) noteCellMap(run.cell, inputs.fn, handle);
   let r: MaybePromise<GroupedMap>;
   try {
     r = recallOrFitGrouped(

@@ -14,3 +14,4 @@ export { type CellMap, cellKey, noteCellMap, cellMap } from './cell-maps';
 export { type FitRun, type Fitter, setFitter, currentFitter, fitInThisThread, fitFromInputs } from './fit-service';
 export { type StreamSink, STREAM_EVERY_MS, streamFit, progressText } from './stream-fit';
 export { reportTable } from './report-table';
+export { groupedWarnings } from './grouped-warnings';

@@ -19,12 +19,15 @@ export function noWarningsLine(reminder: string = ENGINE_REMINDER): string {
 /** The same line with the engine's reminder. */
 export const ESTIMATE_REMINDER = noWarningsLine();
 
-/** Functions whose cell fits (or restores) a map of its own. */
-const FITTING = new Set(['VALUES', 'COST', 'FIT', 'PAIRS', 'LOAD', 'TOTABLE']);
+/** Functions whose cell fits (or restores) a map of its own (a map by group for FITGROUPS and BYGROUP). */
+const FITTING = new Set(['VALUES', 'COST', 'FIT', 'PAIRS', 'LOAD', 'TOTABLE', 'FITGROUPS', 'BYGROUP']);
 /** Functions that use the map held in another cell. */
-const USING = new Set(['APPLY', 'INVERT', 'REPORT', 'SAVE']);
+const USING = new Set(['APPLY', 'INVERT', 'REPORT', 'SAVE', 'APPLYGROUPS', 'GROUPREPORT']);
 /** Functions that map values, whose own values may lie outside the fitted range. */
 const MAPPING = new Set(['VALUES', 'APPLY', 'INVERT', 'TOTABLE']);
+
+/** What the list needs of a map: its warnings and its reminder (a map by group's are gathered by `groupedWarnings`). */
+export type MapFacts = Pick<Diagnostics, 'warnings' | 'reminder'>;
 
 /** One line of the pane's "Formulas in this workbook" list. */
 export interface FormulaStatus {
@@ -46,12 +49,12 @@ export function remapFunctionOf(formula: string): string {
 }
 
 /**
- * What to say about a formula, given its map's diagnostics when the map is
+ * What to say about a formula, given its map's warnings and reminder when the map is
  * known (undefined when it is not) and the warnings of the cell's own last call
  * (undefined when the cell has not mapped values in this session). O(#warnings).
  * @example formulaStatus('=REMAP.VALUES(A2:A9,A2:A9,B2:B9)', undefined).kind // 'unknown'
  */
-export function formulaStatus(formula: string, diag: Diagnostics | undefined, calls?: readonly Warning[]): FormulaStatus {
+export function formulaStatus(formula: string, diag: MapFacts | undefined, calls?: readonly Warning[]): FormulaStatus {
   const fn = remapFunctionOf(formula);
   if (fn === 'GAUSSCOST') {
     return {

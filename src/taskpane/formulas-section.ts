@@ -1,11 +1,13 @@
-import type { Diagnostics } from '../engine/map';
+import { ESTIMATE_REMINDER } from '../engine/base';
+import { parseGroupedMapJSON, restoreGroupedMap } from '../engine/groups/grouped-json';
 import { parseMapJSON } from '../engine/map-json';
 import { restoreMap } from '../engine/methods';
-import { cellMap, isHandle, recall } from '../fits';
+import { cellMap, groupedWarnings, isHandle, recall } from '../fits';
+import { isGroupedHandle, recallGrouped } from '../fits/grouped-store';
 import { findRemapFormulas, type FoundFormula } from '../workbook/formulas';
 import { selectRange } from '../workbook/ranges';
 import { $, listItem, messageOf, redrawKeepingFocus } from './dom';
-import { formulaStatus, remapFunctionOf } from './formula-status';
+import { formulaStatus, remapFunctionOf, type MapFacts } from './formula-status';
 import { pane } from './pane-state';
 
 /*
@@ -41,17 +43,22 @@ export async function refreshFormulas(): Promise<void> {
 function handleOf(f: FoundFormula): string | undefined {
   const fn = remapFunctionOf(f.formula);
   if ((fn === 'FIT' || fn === 'LOAD') && typeof f.value === 'string' && isHandle(f.value)) return f.value.trim();
+  if (fn === 'FITGROUPS' && typeof f.value === 'string' && isGroupedHandle(f.value)) return f.value.trim();
   return cellMap(f.address)?.handle;
 }
 
-/** The map's diagnostics: from this session's maps, else from the workbook's kept copy. */
-async function diagnosticsOf(handle: string | undefined): Promise<Diagnostics | undefined> {
+/** The map's warnings and reminder: from this session's maps, else from the workbook's kept copy; a map by group's from all its groups. */
+async function diagnosticsOf(handle: string | undefined): Promise<MapFacts | undefined> {
   if (!handle) return undefined;
-  const known = recall(handle);
-  if (known) return known.diagnostics();
+  const grouped = isGroupedHandle(handle);
+  const known = grouped ? recallGrouped(handle) : recall(handle);
   try {
+    if (known) return 'entries' in known ? { warnings: groupedWarnings(known.report()), reminder: ESTIMATE_REMINDER } : known.diagnostics();
     const json = await pane.store.load(handle);
-    return json ? restoreMap(parseMapJSON(json)).diagnostics() : undefined;
+    if (!json) return undefined;
+    return grouped
+      ? { warnings: groupedWarnings(restoreGroupedMap(parseGroupedMapJSON(json)).report()), reminder: ESTIMATE_REMINDER }
+      : restoreMap(parseMapJSON(json)).diagnostics();
   } catch {
     return undefined;
   }

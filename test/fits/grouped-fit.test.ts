@@ -1,4 +1,4 @@
-import { fitInThisThread, forgetAll, setFitter, type Fitter } from '../../src/fits';
+import { cellMap, fitInThisThread, forgetAll, groupedWarnings, setFitter, type Fitter } from '../../src/fits';
 import { fitGrouped, readGroupedFit } from '../../src/fits/grouped-fit';
 import { forgetAllGrouped } from '../../src/fits/grouped-store';
 
@@ -45,5 +45,31 @@ describe('fits by group go through the fit service like REMAP.FIT', () => {
 
   test('a caller that cancels stops the fit by group with a cancelled error, not a budget error', () => {
     expect(() => fitGrouped(readGroupedFit('REMAP.FITGROUPS', cells()), undefined, { signal: { aborted: true } })).toThrow(/cancelled before every group/);
+  });
+});
+
+describe("a fit by group in a formula cell, for the pane's list of formulas", () => {
+  test('the cell is recorded with the handle of its map by group', () => {
+    fitGrouped(readGroupedFit('REMAP.BYGROUP', cells()), undefined, { cell: "'Wave 2'!$D$2" });
+    // Source: design choice: the pane finds a BYGROUP cell's map through the cell's record.
+    expect(cellMap('wave 2!d2')).toMatchObject({ fn: 'REMAP.BYGROUP' });
+    expect(cellMap('wave 2!d2')!.handle).toMatch(/^remap:groups-quantile:/);
+  });
+
+  test("every group's warnings, named by group, after the warnings about the grouping", () => {
+    // Group c has one source row: the pooled map stands in for it (fallback pooled); a and b have 8 rows each.
+    const few = {
+      ...cells(),
+      source: col(range(17, (i) => i * 1.5)),
+      sourceGroups: col(range(17, (i) => (i === 16 ? 'c' : ['a', 'b'][i % 2]))),
+      fallback: 'pooled',
+    };
+    const map = fitGrouped(readGroupedFit('REMAP.FITGROUPS', few));
+    const ws = groupedWarnings((map as Exclude<typeof map, Promise<unknown>>).report());
+    // Source: design choice: the grouping's own warning (the pooled map standing in for c) comes first.
+    expect(ws[0].message).toMatch(/stands in for 1 group: "c"/);
+    // Source: design choice: a group's own warnings are led by its name (groups of 8 rows get the small-sample warning).
+    expect(ws.some((w) => /^Group "a": /.test(w.message))).toBe(true);
+    expect(ws.every((w, i) => i === 0 || /^Group "(a|b|c)": /.test(w.message))).toBe(true);
   });
 });

@@ -64,4 +64,18 @@ describe('what the pane says about each REMAP formula in the workbook', () => {
     expect(formulaStatus('=REMAP.REPORT(F2)', undefined).kind).toBe('other');
     expect(formulaStatus('=REMAP.GAUSSCOST(0,1,0,4)', undefined).lines[0].title).toBe('Closed form');
   });
+
+  test("maps by group: FITGROUPS and BYGROUP list their groups' warnings; APPLYGROUPS and GROUPREPORT point to the map cell", () => {
+    const facts = {
+      warnings: [{ code: 'small-sample', message: 'Group "North": The source has 8 usable rows.', action: 'Give more rows.' }],
+      reminder: ESTIMATE_REMINDER,
+    };
+    // Source: design choice (a map by group's warnings are listed with the cell that fits it)
+    const fit = formulaStatus('=REMAP.FITGROUPS(B2:B90,A2:A90,D2:D90,C2:C90)', facts as never);
+    expect(fit.kind).toBe('warnings');
+    expect(fit.lines[0].text).toMatch(/Group "North"/);
+    expect(formulaStatus('=REMAP.BYGROUP(F2:F9,E2:E9,B2:B90,A2:A90,D2:D90,C2:C90)', undefined).kind).toBe('unknown');
+    expect(formulaStatus('=REMAP.APPLYGROUPS(H1,F2:F9,E2:E9)', undefined).kind).toBe('other');
+    expect(formulaStatus('=REMAP.GROUPREPORT(H1)', undefined).lines[0].title).toBe('Uses another cell\u2019s map');
+  });
 });
