@@ -74,6 +74,12 @@ export abstract class BaseMap implements TransportMap {
   /** The method's fitted parameters as plain JSON (numbers finite, arrays plain). */
   protected abstract params(): unknown;
 
+  /** A closed form or a look-up: about d^2 (linear) or a few dozen (a binary search) multiply-adds a row; heavier methods override it. */
+  workPerRow(verb: 'apply' | 'invert'): number {
+    void verb;
+    return Math.max(32, this.d * this.d);
+  }
+
   apply(x: Points): Mapped {
     this.checkShape(x, 'apply');
     return this.applyPoints(x);

@@ -187,6 +187,11 @@ export interface TransportMap {
   toJSON(): MapJSON;
   /** Frees resources held outside the JS heap (tensors); a no-op for plain maps. */
   dispose(): void;
+  /**
+   * Roughly how many multiply-adds mapping one row costs in this direction (an order of magnitude, for a caller
+   * deciding whether to map on its own thread or in a worker). O(1).
+   */
+  workPerRow(verb: 'apply' | 'invert'): number;
 }
 
 /** Progress of a running fit, for the pane and streaming cells. */

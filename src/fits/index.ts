@@ -15,3 +15,4 @@ export { type FitRun, type Fitter, setFitter, currentFitter, fitInThisThread, fi
 export { type StreamSink, STREAM_EVERY_MS, streamFit, progressText } from './stream-fit';
 export { reportTable } from './report-table';
 export { groupedWarnings } from './grouped-warnings';
+export { type Mapper, mapInThisThread, setMapper, mapPoints } from './map-service';

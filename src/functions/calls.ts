@@ -12,6 +12,7 @@ import {
   isHandle,
   makeHandle,
   noteCellMap,
+  mapPoints,
   readFit,
   remember,
   reportTable,
@@ -68,7 +69,7 @@ export function values(
   const inputs = readFit(fn, { source, target, method, settings, sourceWeights, targetWeights });
   const { points, layout } = readValues(vals, inputs.source.sample.d, fn);
   return then(fitFromInputs(inputs, ctx), (map) =>
-    checkPayload(writeValues(noteCall(ctx.cell, fn, inputs.handle, map, map.apply(points), 'apply'), layout), fn),
+    then(mapPoints(map, points, 'apply'), (mapped) => checkPayload(writeValues(noteCall(ctx.cell, fn, inputs.handle, map, mapped, 'apply'), layout), fn)),
   );
 }
 
@@ -138,8 +139,9 @@ function mapWith(fn: string, model: CellIn, vals: CellIn, verb: 'apply' | 'inver
   const text = modelText(model, fn);
   return then(resolveMap(text, fn), (map) => {
     const { points, layout } = readValues(vals, map.d, fn);
-    const mapped = verb === 'apply' ? map.apply(points) : map.invert(points);
-    return checkPayload(writeValues(noteCall(site.cell, fn, isHandle(text) ? text.trim() : '', map, mapped, verb), layout), fn);
+    return then(mapPoints(map, points, verb), (mapped) =>
+      checkPayload(writeValues(noteCall(site.cell, fn, isHandle(text) ? text.trim() : '', map, mapped, verb), layout), fn),
+    );
   });
 }
 

@@ -6,7 +6,9 @@ import * as boundsCall from './bounds-call';
 import * as groupCalls from './group-calls';
 import * as tableCall from './table-call';
 import { guard, toSheetError } from './excel-errors';
-import { fitInThisThread, setFitter, setKeeper, type Fitter } from '../fits';
+import { fitInThisThread, setFitter, setKeeper, setMapper, type Fitter } from '../fits';
+import { pageWorkers, type WorkerLike } from '../fits/worker/page-workers';
+import { workerMapper } from '../fits/worker/worker-mapper';
 import { workerFitter } from '../fits/worker/worker-fitter';
 import { workbookKeeper } from '../workbook/keeper';
 
@@ -402,8 +404,13 @@ const onPage: Fitter = (method, source, target, settings, ctx) => {
 };
 
 // In Excel, fitted maps are also kept in the workbook (src/workbook), so they outlive the session,
-// and fits of the slow methods run in a Web Worker, so the page (and the pane on it) never blocks.
+// and fits of the slow methods, and heavy applications of maps, run in Web Workers (two, shared), so the page
+// (and the pane on it) never blocks.
 if (typeof Excel !== 'undefined') {
   setKeeper(workbookKeeper());
-  setFitter(typeof Worker !== 'undefined' ? workerFitter({ fallback: onPage }) : onPage);
+  if (typeof Worker !== 'undefined') {
+    const workers = pageWorkers(() => new Worker('fit-worker.js') as unknown as WorkerLike, 2);
+    setFitter(workerFitter({ fallback: onPage, workers }));
+    setMapper(workerMapper({ workers }));
+  } else setFitter(onPage);
 }

@@ -44,6 +44,12 @@ export class GradientNetMap extends BaseMap {
     this.net = new Float64Network(network);
   }
 
+  /** Apply: each layer's hidden units against d inputs, twice (forward and the gradient), about 4 hidden d layers a row; invert: Newton's steps on that. */
+  override workPerRow(verb: 'apply' | 'invert'): number {
+    const w = 4 * this.network.hidden * this.d * Math.max(1, this.network.layers);
+    return verb === 'apply' ? w : 20 * w * this.d;
+  }
+
   /**
    * T(x) in float64, in blocks of rows held column by column (Float64Network.forwardColumns): each
    * block is standardised straight into the network's input columns and mapped back from its output

@@ -6,6 +6,7 @@
  * to the page), so trained fits run on wasm here. */
 import { configureBackend } from '../../engine/gradient-net/backend';
 import { runFitJob } from './cells-job';
+import { MapJobs } from './map-job';
 import type { FitReply, WorkerRequest } from './messages';
 import { runSampleFit } from './samples-job';
 
@@ -26,9 +27,21 @@ function fail(id: number, e: unknown): void {
   scope.postMessage({ type: 'error', id, message: String(err?.message ?? e), kind: String(err?.kind ?? 'value') });
 }
 
+/** Rows mapped off the page (worker-mapper.ts): the last map read is kept for the next piece. */
+const mapJobs = new MapJobs();
+
 scope.onmessage = (ev: MessageEvent<WorkerRequest>) => {
   const req = ev.data;
   if (!req) return;
+  if (req.type === 'map-points') {
+    try {
+      const done = mapJobs.run(req);
+      scope.postMessage(done, [done.data.buffer]);
+    } catch (e) {
+      fail(req.id, e);
+    }
+    return;
+  }
   if (req.type === 'fit-samples') {
     runSampleFit(req, (progress) => scope.postMessage({ type: 'progress', id: req.id, progress })).then(
       (json) => scope.postMessage({ type: 'map', id: req.id, json }),

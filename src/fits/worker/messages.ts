@@ -67,10 +67,28 @@ export interface SampleFitDone {
   readonly json: string;
 }
 
-export type WorkerRequest = FitRequest | SampleFitRequest;
+/** Rows for a fitted map to map off the page: the map's JSON (the worker keeps the last one it read) and the rows. */
+export interface MapPointsRequest {
+  readonly type: 'map-points';
+  readonly id: number;
+  readonly json: string;
+  readonly verb: 'apply' | 'invert';
+  readonly points: { readonly n: number; readonly d: number; readonly data: Float64Array };
+}
+
+/** The mapped rows, and how many lay outside the fitted range. */
+export interface MappedPoints {
+  readonly type: 'mapped';
+  readonly id: number;
+  readonly data: Float64Array;
+  readonly outside: number;
+}
+
+export type WorkerRequest = FitRequest | SampleFitRequest | MapPointsRequest;
 
 export type FitReply =
   | { readonly type: 'progress'; readonly id: number; readonly progress: Progress }
   | FitDone
   | SampleFitDone
+  | MappedPoints
   | { readonly type: 'error'; readonly id: number; readonly message: string; readonly kind: string };

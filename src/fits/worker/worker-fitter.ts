@@ -5,22 +5,17 @@ import { restoreMap } from '../../engine/methods';
 import type { Sample } from '../../engine/points';
 import type { Fitter } from '../fit-service';
 import type { FitReply, SampleFitRequest } from './messages';
+import { pageWorkers, type PageWorkers, type WorkerLike } from './page-workers';
 
-/** What the pool needs of a worker (a Web Worker in the add-in; a fake in tests). */
-export interface WorkerLike {
-  postMessage(message: unknown): void;
-  terminate(): void;
-  addEventListener(type: 'message', listener: (ev: MessageEvent<FitReply>) => void): void;
-  addEventListener(type: 'error', listener: (ev: ErrorEvent) => void): void;
-  removeEventListener(type: 'message', listener: (ev: MessageEvent<FitReply>) => void): void;
-  removeEventListener(type: 'error', listener: (ev: ErrorEvent) => void): void;
-}
+export type { WorkerLike } from './page-workers';
 
 export interface WorkerFitterOptions {
   /** Makes a worker (default: new Worker('fit-worker.js'), next to the page). */
   readonly make?: () => WorkerLike;
   /** Workers fitting at the same time (default 2: one per core of a small machine); more fits wait their turn. */
   readonly max?: number;
+  /** The page's workers, when shared with workerMapper (default: a pool of its own from `make` and `max`). */
+  readonly workers?: PageWorkers;
   /** Methods fitted on the page itself (closed forms quick even at Excel's row limit); the others go to a worker. */
   readonly onPage?: ReadonlySet<string>;
   /** Milliseconds between two checks of a fit's cancel signal (default 100). */
@@ -57,39 +52,19 @@ export const PAGE_MAX_NUMBERS = 20_000;
  */
 export function workerFitter(options: WorkerFitterOptions): Fitter {
   const make = options.make ?? (() => new Worker('fit-worker.js') as unknown as WorkerLike);
-  const max = Math.max(1, options.max ?? 2);
+  const workers = options.workers ?? pageWorkers(make, options.max ?? 2);
   const onPage = options.onPage ?? PAGE_METHODS;
   const pollMs = options.pollMs ?? 100;
-  const idle: WorkerLike[] = [];
-  const waiting: (() => void)[] = [];
-  let busy = 0;
-  let broken = false;
   let nextId = 1;
-
-  const acquire = async (): Promise<WorkerLike> => {
-    while (idle.length === 0 && busy >= max) await new Promise<void>((r) => waiting.push(r));
-    busy++;
-    const w = idle.pop();
-    if (w) return w;
-    try {
-      return make();
-    } catch (e) {
-      busy--;
-      throw e;
-    }
-  };
-  const release = (w: WorkerLike | null): void => {
-    busy--;
-    if (w) idle.push(w);
-    waiting.shift()?.();
-  };
+  const acquire = () => workers.acquire();
+  const release = (w: WorkerLike | null) => workers.release(w);
 
   const inWorker = async (method: string, source: Sample, target: Sample, settings: Record<string, unknown>, ctx: FitContext): Promise<TransportMap> => {
     let worker: WorkerLike;
     try {
       worker = await acquire();
     } catch {
-      broken = true;
+      workers.broken = true;
       return options.fallback(method, source, target, settings, ctx);
     }
     const id = nextId++;
@@ -137,7 +112,7 @@ export function workerFitter(options: WorkerFitterOptions): Fitter {
         // The worker script did not load or crashed: fit on the page from now on.
         ev.preventDefault?.();
         finish(false);
-        broken = true;
+        workers.broken = true;
         Promise.resolve(options.fallback(method, source, target, settings, ctx)).then(resolve, reject);
       };
       worker.addEventListener('message', onMessage);
@@ -153,7 +128,7 @@ export function workerFitter(options: WorkerFitterOptions): Fitter {
 
   return (method, source, target, settings, ctx) => {
     const small = (source.n + target.n) * source.d <= PAGE_MAX_NUMBERS;
-    if (broken || (onPage.has(method) && small)) return options.fallback(method, source, target, settings, ctx);
+    if (workers.broken || (onPage.has(method) && small)) return options.fallback(method, source, target, settings, ctx);
     return inWorker(method, source, target, settings, ctx);
   };
 }
