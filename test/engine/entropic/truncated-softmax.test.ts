@@ -144,8 +144,8 @@ describe('TruncatedSoftmax', () => {
     for (const d of [3, 8, 12]) {
       const support = skewed(300, d, 90 + d);
       const r = new Random(91 + d);
-      const h = Float64Array.from({ length: 300 }, () => 3 * r.normal());
-      const softmax = new TruncatedSoftmax(support, h, 0.05);
+      const h = Float64Array.from({ length: 300 }, () => 0.3 * r.normal());
+      const softmax = new TruncatedSoftmax(support, h, 0.3); // broad weights: every bit of every logit counts
       const rows = cloud(101, d, 92 + d, 1.2);
       // Row 100 far away, so that it is taken by squared differences while its neighbours are not.
       for (let k = 0; k < d; k++) rows.data[100 * d + k] = 40 + k;
