@@ -41,10 +41,10 @@ export function expTable(span: number): Float64Array {
  * NaN give 0. In V8 about a third of Math.exp's time. O(1).
  * @param table from `expTable` (its last entry 0).
  * @param z the exponent, <= 0 (the kernel's z are differences from the largest logit).
+ * @param floor -(table.length - 1) / 64, the default (a hot loop passes it to save the reload).
  * @example tableExp(expTable(30), -2.5) // 0.0820849986238988 (Math.exp(-2.5) = 0.0820849986238988)
  */
-export function tableExp(table: Float64Array, z: number): number {
-  const floor = -(table.length - 1) * STEP;
+export function tableExp(table: Float64Array, z: number, floor: number = -(table.length - 1) * STEP): number {
   const zc = z > floor ? z : floor;
   const k = (zc * -STEPS) | 0;
   const r = zc + k * STEP;
@@ -346,9 +346,10 @@ export class TruncatedSoftmax {
   /** The weighted average of the candidate targets, into out[o..o+d). O(count d). */
   private average(dist: Float64Array, cand: Int32Array, count: number, best: number, out: Float64Array, o: number): void {
     const { d, m, yc, widths, weight, table, inv2Eps, sums } = this;
+    const floor = -(table.length - 1) * STEP;
     let total = 0;
     for (let t = 0; t < count; t++) {
-      const w = tableExp(table, (best - dist[cand[t]]) * inv2Eps);
+      const w = tableExp(table, (best - dist[cand[t]]) * inv2Eps, floor);
       weight[t] = w;
       total += w;
     }
