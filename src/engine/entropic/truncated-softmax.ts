@@ -72,24 +72,26 @@ export function tableExp(table: Float64Array, z: number, floor: number = -(table
  *   support rows: two averages of the same rows whose weights differ by that share);
  * - logits: the product form rounds s_j to within gamma (c_j + 2 |x| |y_j|), gamma = (d + 4) u / (1 - (d + 4) u),
  *   u = 2^-53, where sums of squared differences round to within gamma D_j. A kept target has r_j^2 <= D_min + band,
- *   so each kept weight is off by a relative rho(x) = gamma (Y^2 + 2 |x| Y + D_min + band) / (2 eps) at most,
- *   Y = max_j |y_j|, and the average by rho(x) x diameter. The kernel computes rho(x) for every row (O(d)) and takes
+ *   and |x - y_j|^2 <= D_min + band, so |y_j| <= Y(x) = min(max_j |y_j|, |x| + sqrt(D_min + band)) and each kept
+ *   weight is off by a relative rho(x) = gamma (Y(x)^2 + 2 |x| Y(x) + D_min + band) / (2 eps) at most (a target left
+ *   out by rounding alone obeys the same bounds), and the average by rho(x) x diameter. The kernel computes rho(x) for every row (O(d)) and takes
  *   a row with rho(x) > LOGIT_ROUNDING = 5e-12 by sums of squared differences instead, which leaves
  *   gamma (D_min + band) / (2 eps), the rounding any float64 evaluation of the logits has (barycentricMap's too);
  * - the exponentials (2.1e-14 relative, plus 3 u |z| <= 1.1e-14 from forming z) and the two sums over at most m
- *   targets (below 2 (m + 1) u Y <= 1.2e-12 Y for m <= 5,000; Y <= diameter when the support is centred, as fitted
- *   units are).
- * Together, for rows with gamma (D_min + band) / (2 eps) <= 5e-12 (at d = 8 and the default smoothing: rows within
- * about 20 standardised units of their nearest target):
+ *   targets (below 2 (m + 1) u Y <= 1.2e-12 Y for m <= 5,000, Y = max_j |y_j| <= diameter when the support is centred,
+ *   as fitted units are).
+ * Together, for rows with gamma (D_min + band) / (2 eps) <= 5e-12, D_min = min_j D_j (at d = 8 and the default
+ * smoothing, eps = 0.063: D_min up to 467 squared standardised units, about 21 units from the nearest target):
  *   |T_kernel(x) - T(x)| <= (9.29e-11 + 5e-12 + 1.3e-12) x diameter < 1e-10 x diameter.
- * On the bench zoo's report half at d = 8 (n = m = 4,000, default smoothing) rho(x) stays below 8.1e-13, and the
- * largest distance to barycentricMap seen was about 9e-13 x diameter (rounding of both; the truncation share is tiny).
+ * On the bench zoo's report half at d = 8 (n = m = 4,000, default smoothing, 1,000 fresh rows per family) rho(x) stayed
+ * below 1.3e-12 (no row needed squared differences; at d = 2, 15 of 1,000 skewed rows did), and the largest distance to
+ * barycentricMap was 1.5e-12 x diameter (rounding of both; the truncation's share is far below its bound).
  *
- * Speed. At the default smoothing the kept set is large: on that bench, median 2,862 of 4,000 targets per row for the
- * skewed family and 1,741 for the clustered one. A row costs about m d multiply-adds for the products, one table
- * exponential per candidate and d multiply-adds per candidate for the sum: about 40 us per row at m = 4,000, d = 8 on
- * one thread, 2.5-3x less than the sums of squared differences with Math.exp it replaces
- * (`npm run bench -- entropic-zoo` prints the kernel's CPU time per 1,000,000 rows).
+ * Speed. At the default smoothing the kept set is large: on that bench the median row keeps 2,905 of 4,000 targets
+ * (skewed family), 2,609 (shifted), 1,708 (clustered) and 2,599 (tied), and the candidates exceed the kept rows by 3-5 %.
+ * A row costs m d multiply-adds for the products, one table exponential and d multiply-adds per candidate: about 40 us
+ * per row at m = 4,000, d = 8 on one thread, about 3x less than the sums of squared differences with Math.exp it
+ * replaced (`npm run bench -- entropic-zoo` prints the kernel's CPU time per 1,000,000 rows).
  *
  * Row independence: every number a row's result depends on is computed by the same operations in the same order
  * whichever row shares its pass (an odd last row is paired with itself), so a row's result is bit-identical whether it
@@ -210,9 +212,11 @@ export class TruncatedSoftmax {
     const d = this.d;
     let xx = 0;
     for (let k = 0; k < d; k++) xx += xd[o + k] * xd[o + k];
-    const dMin = best + xx;
+    const reach = (best + xx > 0 ? best + xx : 0) + this.band;
+    const norm = sqrt(xx);
     const yMax = sqrt(this.yMax2);
-    const rho = this.gammaOver2Eps * (this.yMax2 + 2 * sqrt(xx) * yMax + (dMin > 0 ? dMin : 0) + this.band);
+    const yKept = norm + sqrt(reach) < yMax ? norm + sqrt(reach) : yMax;
+    const rho = this.gammaOver2Eps * (yKept * yKept + 2 * norm * yKept + reach);
     if (rho > LOGIT_ROUNDING || !(rho >= 0)) {
       best = this.differences(xd, o, dist);
       count = this.candidates(dist, best, cand);
