@@ -13,16 +13,16 @@ export const TRUNCATION_DIGITS = 23.1;
  */
 export const LOGIT_ROUNDING = 5e-12;
 
-/** Table entries per unit of the exponent in `tableExp` (written out as 64 and 1/64 = 0.015625 in the hot code). */
+/** Table entries per unit of the exponent in `tableExpWeights` (written out as 64 and 1/64 = 0.015625 in its loop). */
 const STEPS = 64;
 /** Unit roundoff of float64, 2^-53. */
 const UNIT_ROUNDOFF = 2 ** -53;
 
 /**
- * The table `tableExp` reads, for exponents down to -span: entry k is Math.exp(-k / 64) for k < K = floor(64 span) + 1,
+ * The table `tableExpWeights` reads, for exponents down to -span: entry k is Math.exp(-k / 64) for k < K = floor(64 span) + 1,
  * and entry K is 0. O(64 span) time and memory (2,025 entries, 16 kB, for span = 23.1 + log 5,000).
- * @param span the largest |z| that must come out exact to `tableExp`'s bound (> 0, finite).
- * @example tableExp(expTable(40), -1) // Math.exp(-1) to 2.1e-14 relative
+ * @param span the largest |z| that must come out exact to `tableExpWeights`'s bound (> 0, finite).
+ * @example expTable(23.1 + Math.log(4000)) // 2,009 entries: exp(0), exp(-1/64), ..., exp(-31.375), 0
  */
 export function expTable(span: number): Float64Array {
   const last = Math.floor(span * STEPS) + 1;
@@ -32,24 +32,86 @@ export function expTable(span: number): Float64Array {
 }
 
 /**
- * exp(z) for z <= 0 from a table and a short polynomial: with k = floor(-64 z) and r = z + k / 64 in (-1/64, 0]
- * (computed exactly: the subtraction is exact by Sterbenz's lemma), exp(z) = exp(-k / 64) exp(r), with exp(r) by its
- * Taylor polynomial of degree 5 (evaluated in Estrin's order). The Taylor remainder is below (1/64)^6 / 6! = 2.02e-14
- * relative, so with the table's and the polynomial's roundings the relative error against the exact exp is at most
- * 2.1e-14 for every z in (-K / 64, 0] (K + 1 = table length), which covers [-span, 0]. z <= -K / 64, -Infinity and
- * NaN give 0. In V8 about a third of Math.exp's time. O(1).
+ * weight[t] = exp(z_t), z_t = (top - values[t]) * scale <= 0, for t < count, from a table and a short polynomial; returns
+ * their sum. With k = floor(-64 z) and r = z + k / 64 in (-1/64, 0] (computed exactly: the subtraction is exact by
+ * Sterbenz's lemma), exp(z) = exp(-k / 64) exp(r), with exp(r) by its Taylor polynomial of degree 5 (evaluated in
+ * Estrin's order). The Taylor remainder is below (1/64)^6 / 6! = 2.02e-14 relative, so with the table's and the
+ * polynomial's roundings the relative error against the exact exp is at most 2.1e-14 for every z in (-K / 64, 0]
+ * (K + 1 = table length), which covers [-span, 0]; z <= -K / 64, -Infinity and NaN give 0. About a third of
+ * Math.exp's time in V8. One function for the whole list, so that the loop is compiled on its own. O(count).
  * @param table from `expTable` (its last entry 0).
- * @param z the exponent, <= 0 (the kernel's z are differences from the largest logit).
- * @param floor -(table.length - 1) / 64, the default (a hot loop passes it to save the reload).
- * @example tableExp(expTable(30), -2.5) // 0.0820849986238988 (Math.exp(-2.5) = 0.0820849986238988)
+ * @param values count numbers with (top - values[t]) * scale <= 0 (the kernel's: candidate s_j, top = their minimum,
+ *   scale = 1 / (2 eps)).
+ * @param weight receives the count weights (length >= count).
+ * @example tableExpWeights(expTable(30), Float64Array.of(2.5), 1, 0, 1, w) // w[0] = Math.exp(-2.5) = 0.0820849986238988
  */
-export function tableExp(table: Float64Array, z: number, floor: number = -(table.length - 1) / 64): number {
+export function tableExpWeights(table: Float64Array, values: Float64Array, count: number, top: number, scale: number, weight: Float64Array): number {
   // 64 = STEPS and 0.015625 = 1 / STEPS, written out.
-  const zc = z > floor ? z : floor;
-  const k = (zc * -64) | 0;
-  const r = zc + k * 0.015625;
-  const r2 = r * r;
-  return table[k] * (1 + r + r2 * (0.5 + r * (1 / 6) + r2 * (1 / 24 + r * (1 / 120))));
+  const floor = -(table.length - 1) / 64;
+  let total = 0;
+  for (let t = 0; t < count; t++) {
+    const z = (top - values[t]) * scale;
+    const zc = z > floor ? z : floor;
+    const k = (zc * -64) | 0;
+    const r = zc + k * 0.015625;
+    const r2 = r * r;
+    const w = table[k] * (1 + r + r2 * (0.5 + r * (1 / 6) + r2 * (1 / 24 + r * (1 / 120))));
+    weight[t] = w;
+    total += w;
+  }
+  return total;
+}
+
+/** sums[k] = sum_t weight[t] yc[base + 8 cand[t] + k], k < 8, in t order. O(8 count). */
+function weightedSums8(yc: Float64Array, base: number, cand: Int32Array, weight: Float64Array, count: number, sums: Float64Array): void {
+  let a0 = 0;
+  let a1 = 0;
+  let a2 = 0;
+  let a3 = 0;
+  let a4 = 0;
+  let a5 = 0;
+  let a6 = 0;
+  let a7 = 0;
+  for (let t = 0; t < count; t++) {
+    const w = weight[t];
+    const p = base + cand[t] * 8;
+    a0 += w * yc[p];
+    a1 += w * yc[p + 1];
+    a2 += w * yc[p + 2];
+    a3 += w * yc[p + 3];
+    a4 += w * yc[p + 4];
+    a5 += w * yc[p + 5];
+    a6 += w * yc[p + 6];
+    a7 += w * yc[p + 7];
+  }
+  sums[0] = a0;
+  sums[1] = a1;
+  sums[2] = a2;
+  sums[3] = a3;
+  sums[4] = a4;
+  sums[5] = a5;
+  sums[6] = a6;
+  sums[7] = a7;
+}
+
+/** sums[k] = sum_t weight[t] yc[base + 4 cand[t] + k], k < 4, in t order. O(4 count). */
+function weightedSums4(yc: Float64Array, base: number, cand: Int32Array, weight: Float64Array, count: number, sums: Float64Array): void {
+  let a0 = 0;
+  let a1 = 0;
+  let a2 = 0;
+  let a3 = 0;
+  for (let t = 0; t < count; t++) {
+    const w = weight[t];
+    const p = base + cand[t] * 4;
+    a0 += w * yc[p];
+    a1 += w * yc[p + 1];
+    a2 += w * yc[p + 2];
+    a3 += w * yc[p + 3];
+  }
+  sums[0] = a0;
+  sums[1] = a1;
+  sums[2] = a2;
+  sums[3] = a3;
 }
 
 /**
@@ -64,7 +126,7 @@ export function tableExp(table: Float64Array, z: number, floor: number = -(table
  * stored in chunks of 8 or 4 zero-padded columns). The same pass keeps the running minimum of s_j and lists the
  * candidates s_j <= (running minimum) + band, band = 2 eps (23.1 + log m); the rows kept in the end, those within band
  * of the final minimum, are among them, so no second test over all m is needed. Only candidates are exponentiated
- * (`tableExp`, z = (minimum - s_j) / (2 eps)) and summed into the weighted average.
+ * (`tableExpWeights`, z = (minimum - s_j) / (2 eps)) and summed into the weighted average.
  *
  * Error, against the untruncated map T(x) evaluated exactly:
  * - truncation: every target left out has weight below e^-(23.1 + log m) of the largest, so together they weigh less
@@ -119,6 +181,9 @@ export class TruncatedSoftmax {
   private readonly dist1: Float64Array;
   private readonly cand0: Int32Array;
   private readonly cand1: Int32Array;
+  /** The candidates' s_j, in candidate order (lane 0 and 1). */
+  private readonly vals0: Float64Array;
+  private readonly vals1: Float64Array;
   private readonly weight: Float64Array;
   private readonly sums = new Float64Array(8);
   /** -2 x for the two rows of a pass, zero-padded to `padded` columns each. */
@@ -171,6 +236,8 @@ export class TruncatedSoftmax {
     this.dist1 = new Float64Array(m);
     this.cand0 = new Int32Array(m);
     this.cand1 = new Int32Array(m);
+    this.vals0 = new Float64Array(m);
+    this.vals1 = new Float64Array(m);
     this.weight = new Float64Array(m);
     this.xs = new Float64Array(2 * this.padded);
   }
@@ -192,8 +259,8 @@ export class TruncatedSoftmax {
         xs[padded + k] = -2 * xd[i1 * d + k];
       }
       this.products();
-      this.finish(xd, i * d, this.dist0, this.cand0, this.count0, this.best0, out, sqrt);
-      if (i1 !== i) this.finish(xd, i1 * d, this.dist1, this.cand1, this.count1, this.best1, out, sqrt);
+      this.finish(xd, i * d, this.dist0, this.vals0, this.cand0, this.count0, this.best0, out, sqrt);
+      if (i1 !== i) this.finish(xd, i1 * d, this.dist1, this.vals1, this.cand1, this.count1, this.best1, out, sqrt);
     }
     return out;
   }
@@ -203,6 +270,7 @@ export class TruncatedSoftmax {
     xd: Float64Array,
     o: number,
     dist: Float64Array,
+    vals: Float64Array,
     cand: Int32Array,
     count: number,
     best: number,
@@ -219,9 +287,9 @@ export class TruncatedSoftmax {
     const rho = this.gammaOver2Eps * (yKept * yKept + 2 * norm * yKept + reach);
     if (rho > LOGIT_ROUNDING || !(rho >= 0)) {
       best = this.differences(xd, o, dist);
-      count = this.candidates(dist, best, cand);
+      count = this.candidates(dist, best, cand, vals);
     }
-    this.average(dist, cand, count, best, out, o);
+    this.average(vals, cand, count, best, out, o);
   }
 
   /**
@@ -229,7 +297,7 @@ export class TruncatedSoftmax {
    * candidates of the last chunk. Each lane's sums run in the same order whatever the other lane holds.
    */
   private products(): void {
-    const { m, yc, c, widths, padded, xs, band, dist0, dist1, cand0, cand1 } = this;
+    const { m, yc, c, widths, padded, xs, band, dist0, dist1, cand0, cand1, vals0, vals1 } = this;
     const min = Math.min;
     let b0 = Infinity;
     let b1 = Infinity;
@@ -280,8 +348,10 @@ export class TruncatedSoftmax {
           b1 = min(b1, t1);
           l1 = b1 + band;
           cand0[n0] = j;
+          vals0[n0] = t0;
           n0 += +(t0 <= l0);
           cand1[n1] = j;
+          vals1[n1] = t1;
           n1 += +(t1 <= l1);
         }
       } else {
@@ -307,8 +377,10 @@ export class TruncatedSoftmax {
           b1 = min(b1, t1);
           l1 = b1 + band;
           cand0[n0] = j;
+          vals0[n0] = t0;
           n0 += +(t0 <= l0);
           cand1[n1] = j;
+          vals1[n1] = t1;
           n1 += +(t1 <= l1);
         }
       }
@@ -336,68 +408,25 @@ export class TruncatedSoftmax {
     return best;
   }
 
-  /** The targets with dist <= best + band into cand; returns their count. O(m). */
-  private candidates(dist: Float64Array, best: number, cand: Int32Array): number {
+  /** The targets with dist <= best + band into cand, their values into vals; returns their count. O(m). */
+  private candidates(dist: Float64Array, best: number, cand: Int32Array, vals: Float64Array): number {
     const limit = best + this.band;
     let n = 0;
     for (let j = 0; j < this.m; j++) {
       cand[n] = j;
+      vals[n] = dist[j];
       n += dist[j] <= limit ? 1 : 0;
     }
     return n;
   }
 
-  /** The weighted average of the candidate targets, into out[o..o+d). O(count d). */
-  private average(dist: Float64Array, cand: Int32Array, count: number, best: number, out: Float64Array, o: number): void {
-    const { d, m, yc, widths, weight, table, inv2Eps, sums } = this;
-    const floor = -(table.length - 1) / 64;
-    let total = 0;
-    for (let t = 0; t < count; t++) {
-      const w = tableExp(table, (best - dist[cand[t]]) * inv2Eps, floor);
-      weight[t] = w;
-      total += w;
-    }
+  /** The weighted average of the candidate targets (indices cand, values s_j in vals), into out[o..o+d). O(count d). */
+  private average(vals: Float64Array, cand: Int32Array, count: number, best: number, out: Float64Array, o: number): void {
+    const { d, m, yc, widths, weight, sums } = this;
+    const total = tableExpWeights(this.table, vals, count, best, this.inv2Eps, weight);
     for (let q = 0, start = 0; q < widths.length; start += widths[q], q++) {
-      const base = m * start;
-      let a0 = 0;
-      let a1 = 0;
-      let a2 = 0;
-      let a3 = 0;
-      let a4 = 0;
-      let a5 = 0;
-      let a6 = 0;
-      let a7 = 0;
-      if (widths[q] === 8) {
-        for (let t = 0; t < count; t++) {
-          const w = weight[t];
-          const p = base + cand[t] * 8;
-          a0 += w * yc[p];
-          a1 += w * yc[p + 1];
-          a2 += w * yc[p + 2];
-          a3 += w * yc[p + 3];
-          a4 += w * yc[p + 4];
-          a5 += w * yc[p + 5];
-          a6 += w * yc[p + 6];
-          a7 += w * yc[p + 7];
-        }
-      } else {
-        for (let t = 0; t < count; t++) {
-          const w = weight[t];
-          const p = base + cand[t] * 4;
-          a0 += w * yc[p];
-          a1 += w * yc[p + 1];
-          a2 += w * yc[p + 2];
-          a3 += w * yc[p + 3];
-        }
-      }
-      sums[0] = a0;
-      sums[1] = a1;
-      sums[2] = a2;
-      sums[3] = a3;
-      sums[4] = a4;
-      sums[5] = a5;
-      sums[6] = a6;
-      sums[7] = a7;
+      if (widths[q] === 8) weightedSums8(yc, m * start, cand, weight, count, sums);
+      else weightedSums4(yc, m * start, cand, weight, count, sums);
       for (let k = start; k < d && k < start + widths[q]; k++) out[o + k] = sums[k - start] / total;
     }
   }

@@ -1,5 +1,5 @@
 import { barycentricMap } from '../../../src/engine/entropic/barycentric-map';
-import { TRUNCATION_DIGITS, TruncatedSoftmax, expTable, tableExp } from '../../../src/engine/entropic/truncated-softmax';
+import { TRUNCATION_DIGITS, TruncatedSoftmax, expTable, tableExpWeights } from '../../../src/engine/entropic/truncated-softmax';
 import type { Points } from '../../../src/engine/points';
 import { Random } from '../../../src/engine/stats/random';
 
@@ -63,43 +63,57 @@ function compare(support: Points, x: Points, eps: number, seed: number, gSpread:
   return worstRelative(fast, exact, x.d, diameterOf(support));
 }
 
-describe('tableExp', () => {
-  test('matches Math.exp to 2.2e-14 relative over its whole range, on a fine grid and at every table step', () => {
+/** exp(z) for each z by tableExpWeights (values -z, top 0, scale 1: z = (0 - (-z)) * 1 exactly). */
+function tableExps(table: Float64Array, zs: number[]): Float64Array {
+  const w = new Float64Array(zs.length);
+  tableExpWeights(
+    table,
+    Float64Array.from(zs, (z) => -z),
+    zs.length,
+    0,
+    1,
+    w,
+  );
+  return w;
+}
+
+describe('tableExpWeights', () => {
+  test('matches Math.exp to 2.2e-14 relative over its whole range, on a fine grid and around every table step', () => {
     // Source: the Taylor remainder of degree 5 on |r| < 1/64 is (1/64)^6 / 6! = 2.02e-14 relative (worked by hand),
     // plus a few roundings of 1.1e-16; Math.exp is within 1 ulp (V8 uses fdlibm's exp).
     const span = TRUNCATION_DIGITS + Math.log(5000);
     const table = expTable(span);
-    const exp = Math.exp;
-    let worst = 0;
+    const zs: number[] = [];
     const steps = 200_000;
-    for (let i = 0; i <= steps; i++) {
-      const z = -(i / steps) * span;
-      worst = Math.max(worst, Math.abs(tableExp(table, z) / exp(z) - 1));
-    }
+    for (let i = 0; i <= steps; i++) zs.push(-(i / steps) * span);
     for (let k = 0; k < table.length - 1; k++) {
       for (const dz of [0, 1e-15, -1e-15, -0.5 / 64, -0.9999 / 64]) {
         const z = -k / 64 + dz;
-        if (z <= 0 && z >= -span) worst = Math.max(worst, Math.abs(tableExp(table, z) / exp(z) - 1));
+        if (z <= 0 && z >= -span) zs.push(z);
       }
     }
+    const w = tableExps(table, zs);
+    const exp = Math.exp;
+    let worst = 0;
+    for (let i = 0; i < zs.length; i++) worst = Math.max(worst, Math.abs(w[i] / exp(zs[i]) - 1));
     expect(worst).toBeLessThanOrEqual(2.2e-14);
-    // Source: design choice: a bound much looser than 2e-14 would mean the polynomial or the table is wrong.
+    // Source: design choice: a worst error far below the remainder would mean the grid missed the steps' ends.
     expect(worst).toBeGreaterThan(1e-15);
   });
 
-  test('is exactly 1 at 0, and 0 at and below the end of its table, at -Infinity and at NaN', () => {
+  test('is exactly 1 at 0, 0 at and below the end of its table, at -Infinity and at NaN, and returns the sum', () => {
     const table = expTable(30);
-    // Source: exp(0) = 1 (the polynomial is 1 at r = 0 and the table's first entry is Math.exp(0) = 1).
-    expect(tableExp(table, 0)).toBe(1);
     const end = -(table.length - 1) / 64;
+    const w = tableExps(table, [0, end, end - 5, -1e300, -Infinity, NaN, -30]);
+    // Source: exp(0) = 1 (the polynomial is 1 at r = 0 and the table's first entry is Math.exp(0) = 1).
+    expect(w[0]).toBe(1);
     // Source: design choice (the last table entry is 0, so anything clamped to the end weighs nothing).
-    expect(tableExp(table, end)).toBe(0);
-    expect(tableExp(table, end - 5)).toBe(0);
-    expect(tableExp(table, -1e300)).toBe(0);
-    expect(tableExp(table, -Infinity)).toBe(0);
-    expect(tableExp(table, NaN)).toBe(0);
-    // Source: the table covers its span: the last exact entry is exp(-30.016) = 9.2e-14, just above 0.
-    expect(tableExp(table, -30)).toBeCloseTo(Math.exp(-30), 25);
+    expect(Array.from(w.subarray(1, 6))).toEqual([0, 0, 0, 0, 0]);
+    // Source: the table covers its span: exp(-30) = 9.36e-14.
+    expect(w[6] / Math.exp(-30)).toBeCloseTo(1, 13);
+    // Source: the returned total is the sum of the weights (worked by hand: 1 + exp(-2) with top 1, values 1 and 3).
+    const two = new Float64Array(2);
+    expect(tableExpWeights(table, Float64Array.of(1, 3), 2, 1, 1, two)).toBeCloseTo(1 + Math.exp(-2), 14);
   });
 });
 
