@@ -293,8 +293,9 @@ export class TruncatedSoftmax {
   }
 
   /**
-   * s_j = c_j - 2 x.y_j for both rows of the pass into dist0 / dist1, chunk by chunk, with the running minimum and the
-   * candidates of the last chunk. Each lane's sums run in the same order whatever the other lane holds.
+   * s_j = c_j - 2 x.y_j for both rows of the pass, chunk by chunk (partial sums in dist0 / dist1), with the running
+   * minimum, the candidates and their values (cand, vals) from the last chunk. Each lane's sums run in the same order
+   * whatever the other lane holds.
    */
   private products(): void {
     const { m, yc, c, widths, padded, xs, band, dist0, dist1, cand0, cand1, vals0, vals1 } = this;
@@ -306,6 +307,8 @@ export class TruncatedSoftmax {
     for (let q = 0, start = 0; q < widths.length; start += widths[q], q++) {
       const s0 = q === 0 ? c : dist0;
       const s1 = q === 0 ? c : dist1;
+      // Only a chunk before the last stores its partial sums; the last one's values go to the candidate lists.
+      const partial = q < widths.length - 1;
       const base = m * start;
       let l0 = Infinity;
       let l1 = Infinity;
@@ -341,8 +344,10 @@ export class TruncatedSoftmax {
           const y7 = yc[p + 7];
           const t0 = s0[j] + (a0 * y0 + a1 * y1 + (a2 * y2 + a3 * y3) + (a4 * y4 + a5 * y5 + (a6 * y6 + a7 * y7)));
           const t1 = s1[j] + (e0 * y0 + e1 * y1 + (e2 * y2 + e3 * y3) + (e4 * y4 + e5 * y5 + (e6 * y6 + e7 * y7)));
-          dist0[j] = t0;
-          dist1[j] = t1;
+          if (partial) {
+            dist0[j] = t0;
+            dist1[j] = t1;
+          }
           b0 = min(b0, t0);
           l0 = b0 + band;
           b1 = min(b1, t1);
@@ -370,8 +375,10 @@ export class TruncatedSoftmax {
           const y3 = yc[p + 3];
           const t0 = s0[j] + (a0 * y0 + a1 * y1 + (a2 * y2 + a3 * y3));
           const t1 = s1[j] + (e0 * y0 + e1 * y1 + (e2 * y2 + e3 * y3));
-          dist0[j] = t0;
-          dist1[j] = t1;
+          if (partial) {
+            dist0[j] = t0;
+            dist1[j] = t1;
+          }
           b0 = min(b0, t0);
           l0 = b0 + band;
           b1 = min(b1, t1);
