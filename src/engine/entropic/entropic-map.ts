@@ -53,7 +53,7 @@ export interface EntropicParamsJSON {
  * diameter of the fitted target rows of the exact untruncated map, for every row not
  * far outside the data (the condition is in TruncatedSoftmax); a row's result does not
  * depend on the rows mapped with it).
- * About 40 us of one thread per row at m = 4,000, d = 8. `invert` is the exact inverse of that
+ * About 30-40 us of one thread per row at m = 4,000, d = 8. `invert` is the exact inverse of that
  * map, T^-1(y), by Newton's method on the convex potential (`newtonInverse`,
  * tolerance 1e-10 relative), started from the reverse entropic map; a value with
  * no preimage (outside the convex hull of the target rows, or too close to its

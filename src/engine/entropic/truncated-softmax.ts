@@ -150,10 +150,11 @@ function weightedSums4(yc: Float64Array, base: number, cand: Int32Array, weight:
  * barycentricMap was 1.5e-12 x diameter (rounding of both; the truncation's share is far below its bound).
  *
  * Speed. At the default smoothing the kept set is large: on that bench the median row keeps 2,905 of 4,000 targets
- * (skewed family), 2,609 (shifted), 1,708 (clustered) and 2,599 (tied), and the candidates exceed the kept rows by 3-5 %.
- * A row costs m d multiply-adds for the products, one table exponential and d multiply-adds per candidate: about 40 us
- * per row at m = 4,000, d = 8 on one thread, about 3x less than the sums of squared differences with Math.exp it
- * replaced (`npm run bench -- entropic-zoo` prints the kernel's CPU time per 1,000,000 rows).
+ * (skewed family), 2,609 (shifted), 1,708 (clustered) and 2,599 (tied), and the candidates exceed the kept rows by 2-6 %.
+ * A row costs m d multiply-adds for the products, one table exponential and d multiply-adds per candidate. At m = 4,000,
+ * d = 8 on one thread that is 28-33 us per row bundled with esbuild and run in Node, 34-39 us under the bench's tsx
+ * loader, against 70-84 and 99-124 us for the sums of squared differences with Math.exp it replaced (one run of both,
+ * load average 0.9; `npm run bench -- entropic-zoo` prints the kernel's CPU time per 1,000,000 rows).
  *
  * Row independence: every number a row's result depends on is computed by the same operations in the same order
  * whichever row shares its pass (an odd last row is paired with itself), so a row's result is bit-identical whether it
