@@ -22,7 +22,7 @@ const UNIT_ROUNDOFF = 2 ** -53;
  * The table `tableExpWeights` reads, for exponents down to -span: entry k is Math.exp(-k / 64) for k < K = floor(64 span) + 1,
  * and entry K is 0. O(64 span) time and memory (2,025 entries, 16 kB, for span = 23.1 + log 5,000).
  * @param span the largest |z| that must come out exact to `tableExpWeights`'s bound (> 0, finite).
- * @example expTable(23.1 + Math.log(4000)) // 2,009 entries: exp(0), exp(-1/64), ..., exp(-31.375), 0
+ * @example expTable(23.1 + Math.log(4000)) // 2,011 entries: exp(0), exp(-1/64), ..., exp(-2009/64), 0
  */
 export function expTable(span: number): Float64Array {
   const last = Math.floor(span * STEPS) + 1;
@@ -43,7 +43,7 @@ export function expTable(span: number): Float64Array {
  * @param values count numbers with (top - values[t]) * scale <= 0 (the kernel's: candidate s_j, top = their minimum,
  *   scale = 1 / (2 eps)).
  * @param weight receives the count weights (length >= count).
- * @example tableExpWeights(expTable(30), Float64Array.of(2.5), 1, 0, 1, w) // w[0] = Math.exp(-2.5) = 0.0820849986238988
+ * @example tableExpWeights(expTable(30), Float64Array.of(2.5), 1, 0, 1, w) // w[0] = 0.08208499862389..., Math.exp(-2.5) to 2.1e-14
  */
 export function tableExpWeights(table: Float64Array, values: Float64Array, count: number, top: number, scale: number, weight: Float64Array): number {
   // 64 = STEPS and 0.015625 = 1 / STEPS, written out.
@@ -136,9 +136,10 @@ function weightedSums4(yc: Float64Array, base: number, cand: Int32Array, weight:
  *   u = 2^-53, where sums of squared differences round to within gamma D_j. A kept target has r_j^2 <= D_min + band,
  *   and |x - y_j|^2 <= D_min + band, so |y_j| <= Y(x) = min(max_j |y_j|, |x| + sqrt(D_min + band)) and each kept
  *   weight is off by a relative rho(x) = gamma (Y(x)^2 + 2 |x| Y(x) + D_min + band) / (2 eps) at most (a target left
- *   out by rounding alone obeys the same bounds), and the average by rho(x) x diameter. The kernel computes rho(x) for every row (O(d)) and takes
- *   a row with rho(x) > LOGIT_ROUNDING = 5e-12 by sums of squared differences instead, which leaves
- *   gamma (D_min + band) / (2 eps), the rounding any float64 evaluation of the logits has (barycentricMap's too);
+ *   out by rounding alone obeys the same bounds), and the average by rho(x) x diameter. The kernel computes rho(x) for
+ *   every row (O(d)) and takes a row with rho(x) > LOGIT_ROUNDING = 5e-12 by sums of squared differences instead,
+ *   which leaves gamma (D_min + band) / (2 eps), the rounding any float64 evaluation of the logits has (barycentricMap's
+ *   too);
  * - the exponentials (2.1e-14 relative, plus 3 u |z| <= 1.1e-14 from forming z) and the two sums over at most m
  *   targets (below 2 (m + 1) u Y <= 1.2e-12 Y for m <= 5,000, Y = max_j |y_j| <= diameter when the support is centred,
  *   as fitted units are).
@@ -159,7 +160,7 @@ function weightedSums4(yc: Float64Array, base: number, cand: Int32Array, weight:
  * Row independence: every number a row's result depends on is computed by the same operations in the same order
  * whichever row shares its pass (an odd last row is paired with itself), so a row's result is bit-identical whether it
  * is mapped alone or in any batch, and rows may be split across workers freely.
- * Cost: O(r m d) for r rows, plus O(candidates d) per row; O(m d) for the chunked support and O(6 m) scratch.
+ * Cost: O(r m d) for r rows, plus O(candidates d) per row; O(m d) for the chunked support and O(7 m) scratch.
  */
 export class TruncatedSoftmax {
   private readonly d: number;
