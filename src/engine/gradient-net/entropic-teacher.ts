@@ -1,4 +1,4 @@
-import { barycentricMap } from '../entropic/barycentric-map';
+import { TruncatedSoftmax } from '../entropic/truncated-softmax';
 import { supportOf } from '../entropic/log-weights';
 import { solveSinkhorn } from '../entropic/sinkhorn';
 import { SolveControl } from '../entropic/solve-control';
@@ -48,12 +48,16 @@ export function entropicTeacher(source: TrainData, target: TrainData, eps: numbe
   );
   const y = ys.points;
   const logB = ys.logMass;
+  // The entropic map's own kernel (within 1e-10 of the support's diameter of the untruncated map), built once.
+  const h = new Float64Array(y.n);
+  for (let j = 0; j < y.n; j++) h[j] = logB[j] + r.g[j] / eps;
+  let kernel: TruncatedSoftmax | null = null;
   return {
     eps,
     rows: { source: xs.points.n, target: y.n },
     iterations: r.iterations,
     converged: r.converged,
-    at: (x: Points) => barycentricMap(x, y, logB, r.g, eps),
+    at: (x: Points) => (kernel ??= new TruncatedSoftmax(y, h, eps)).map(x),
   };
 }
 
