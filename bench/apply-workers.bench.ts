@@ -3,9 +3,13 @@
  * family of the zoo (bench/zoo.ts; n = m = 4,000, d = 8) applied by `remap apply` to fresh rows (default 1,000,000;
  * goal <= 10 s), with --workers 1, 2, ... up to the processor count. Prints wall and CPU time per run, the speed-up
  * over one thread, the load average, and whether every run wrote the same bytes (it must: rows are mapped one by one).
+ * First it measures the machine itself: a fixed arithmetic loop on one thread, then the same loop on as many threads at
+ * once, so the speed-up of `remap apply` can be read against what the processors give to any code (on a virtual machine
+ * whose processors share a physical core, two threads may do much less than twice the work of one).
  * Run: npm run bench -- apply-workers [--rows 1000000] [--family skew] [--method entropic]. Needs `npm run build:cli`.
  */
 import { spawnSync } from 'child_process';
+import { Worker } from 'worker_threads';
 import { createHash } from 'crypto';
 import * as fs from 'fs';
 import * as os from 'os';
@@ -24,8 +28,31 @@ const load = (): string =>
     .join(' ');
 const bin = path.resolve(__dirname, '..', 'bin', 'remap.js');
 
+/** A loop of multiply-adds over a small table (about a second), as JavaScript source for a worker thread or this one. */
+const LOOP = `(() => { const a = new Float64Array(4096).map((_, i) => Math.sin(i)); let s = 0;
+  for (let r = 0; r < 250000; r++) for (let j = 0; j < 4096; j++) s += a[j] * a[(j * 7) & 4095]; return s; })()`;
+
+/** Seconds for `threads` copies of LOOP run at once, each on its own worker thread. */
+async function loopOn(threads: number): Promise<number> {
+  const t = performance.now();
+  await Promise.all(
+    Array.from(
+      { length: threads },
+      () => new Promise<void>((done) => new Worker(`require('worker_threads').parentPort.postMessage(${LOOP})`, { eval: true }).once('message', () => done())),
+    ),
+  );
+  return (performance.now() - t) / 1000;
+}
+
 async function main(): Promise<void> {
   const rows = Number(arg('rows', '1000000'));
+  const cores = Math.max(2, os.availableParallelism());
+  const alone = await loopOn(1);
+  const together = await loopOn(cores);
+  console.log(
+    `the machine: one arithmetic loop ${alone.toFixed(2)} s on one thread; ${cores} copies at once ${together.toFixed(2)} s, ` +
+      `so ${cores} threads do ${((cores * alone) / together).toFixed(2)}x the work of one (load ${load()})`,
+  );
   const family = arg('family', 'skew') as FamilyName;
   const method = arg('method', 'entropic');
   if (!REPORT_FAMILIES.includes(family)) throw new Error(`--family must be one of the report half: ${REPORT_FAMILIES.join(', ')}`);
@@ -46,7 +73,7 @@ async function main(): Promise<void> {
     console.log('workers  wall s  cpu s  speed-up  same bytes  load');
     let one = NaN;
     let first = '';
-    for (let w = 1; w <= Math.max(2, os.availableParallelism()); w++) {
+    for (let w = 1; w <= cores; w++) {
       const t = performance.now();
       const out = path.join(dir, `y${w}.csv`);
       const r = spawnSync(

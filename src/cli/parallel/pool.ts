@@ -60,7 +60,8 @@ export class WorkerPool {
   private start(): Worker {
     const script = path.join(__dirname, 'cli-worker');
     const worker = __filename.endsWith('.ts')
-      ? new Worker(`require('tsx/cjs/api').register(); require(${JSON.stringify(script + '.ts')});`, { eval: true })
+      ? // tsx is found from this file (the checkout), not from the working folder the command runs in.
+        new Worker(`require(${JSON.stringify(require.resolve('tsx/cjs/api'))}).register(); require(${JSON.stringify(script + '.ts')});`, { eval: true })
       : new Worker(script + '.js');
     this.all.push(worker);
     return worker;
