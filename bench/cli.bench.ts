@@ -2,7 +2,7 @@
  * Command-line benchmark (run: npm run bench -- cli; needs `npm run build:cli` first).
  * Whole processes of the compiled `remap`: `methods` (goal <= 0.3 s), and fit and apply of
  * 1,048,576 rows from CSV, one column (quantile) and five columns (linear), on one thread
- * (--workers 1) and with the automatic thread count (one per processor from 8 MB), each against
+ * (--workers 1) and with the automatic thread count (one per processor from 32 MB), each against
  * the engine on the same rows plus reading the file(s) once (fs.readFileSync), measured in this run
  * (goal: each <= 3x). The engine's fit is timed twice: the fit alone, and the fit with the map's
  * saved JSON (toJSON computes the report the command saves: the comparisons after fitting, a

@@ -12,7 +12,7 @@ import { scanNumericBytes, scanNumericCSV } from './numeric-csv';
 import { mapTable } from './numeric-map-file';
 import { sampleFromTable } from './numeric-sample';
 import { CommandUsageError, MORE_COMMANDS, runMoreCommand } from './more-commands';
-import { mapInParallel, scanInParallel, workerCount } from './parallel/parallel-csv';
+import { estimateRows, mapInParallel, scanInParallel, workerCount } from './parallel/parallel-csv';
 import { WorkerPool } from './parallel/pool';
 import { DIALECT_FLAGS, MOMENT_FLAGS, route, SQL_FLAGS, SQL_SUMMARY, type RouteIO } from './route';
 import type { NumericTable } from './numeric-csv';
@@ -332,7 +332,7 @@ async function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply
   const input = io.readInput?.(inputPath);
   if (input) {
     // Large inputs: threads read, map and write pieces of the file; the output is the same bytes as on one thread.
-    const workers = workerCount(flags.workers, input.bytes.length);
+    const workers = workerCount(flags.workers, input.bytes.length, estimateRows(input.bytes) * map.workPerRow(command));
     const done =
       workers > 1 ? await mapInParallel(threads.pool(workers), input.bytes, inputPath, input.dialect, model, command, flags.workers !== undefined) : null;
     if (done) {

@@ -41,25 +41,7 @@ describe('numbers written as bytes, as String(x) spells them', () => {
   }
 
   test('hand-picked values: integers, short decimals, powers of ten and their neighbours, signs', () => {
-    const xs = [
-      0,
-      -0,
-      1,
-      -1,
-      0.1,
-      0.2 + 0.1,
-      1 / 3,
-      -2 / 3,
-      100,
-      1e20,
-      123456789012345680000,
-      0.000001,
-      0.0000123,
-      1e-6,
-      2 ** 53 + 2,
-      2 ** 53,
-      2 ** 52 + 0.5,
-    ];
+    const xs = [0, -0, 1, -1, 0.1, 0.2 + 0.1, 1 / 3, -2 / 3, 100, 1e20, 123456789012345680000, 0.000001, 0.0000123, 1e-6, 2 ** 53 + 2, 2 ** 53, 2 ** 52 + 0.5];
     for (let e = -6; e <= 20; e++) {
       const p = Number(`1e${e}`);
       xs.push(p, -p, p * (1 + Number.EPSILON), p * (1 - Number.EPSILON / 2), (1 - 2 ** -52) * 10 * p, 5 * p, 2.5 * p);

@@ -6,18 +6,25 @@ import type { MappedPiece } from './messages';
 import type { WorkerPool } from './pool';
 
 /** Inputs from this size up are read by several threads when --workers is not given. */
-export const AUTO_MIN_BYTES = 8 << 20;
+export const AUTO_MIN_BYTES = 32 << 20;
+/**
+ * Maps whose work on an input (rows x the map's work per row, in multiply-adds) is at least this are applied by several
+ * threads whatever the input's size: about half a second on one core.
+ */
+export const AUTO_MIN_WORK = 5e8;
 /** The most threads --workers accepts, and the most the automatic choice uses. */
 export const MAX_WORKERS = 64;
 const AUTO_MAX_WORKERS = 8;
 
 /**
  * How many threads read (and map) an input of `bytes` bytes: --workers as given (1 = this thread only), else one
- * per processor (at most 8) for inputs of 8 MB or more, and 1 below. Results are the same bytes whatever the count.
+ * per processor (at most 8) for inputs of 32 MB or more, or whose mapping costs `work` >= AUTO_MIN_WORK multiply-adds
+ * (below both, starting the threads costs about what they save: measured in bench/cli.bench.ts), and 1 otherwise.
+ * Results are the same bytes whatever the count.
  * @throws RemapError when --workers is not a whole number from 1 to 64.
  * @example workerCount('3', 10) // 3
  */
-export function workerCount(flag: string | undefined, bytes: number): number {
+export function workerCount(flag: string | undefined, bytes: number, work = 0): number {
   if (flag !== undefined) {
     const n = Number(flag.trim());
     if (!Number.isInteger(n) || n < 1 || n > MAX_WORKERS) {
@@ -25,13 +32,25 @@ export function workerCount(flag: string | undefined, bytes: number): number {
     }
     return n;
   }
-  if (bytes < AUTO_MIN_BYTES) return 1;
+  if (bytes < AUTO_MIN_BYTES && work < AUTO_MIN_WORK) return 1;
   const cores = typeof os.availableParallelism === 'function' ? os.availableParallelism() : os.cpus().length;
   return Math.max(1, Math.min(cores, AUTO_MAX_WORKERS));
 }
 
 /** Files read and files mapped by threads in this process (a file that fell back to one thread is not counted). */
 export const threadUse = { read: 0, mapped: 0 };
+
+/**
+ * About how many data lines a CSV file holds, from the length of the lines in its first 64 KB. O(64 KB).
+ * @example estimateRows(Buffer.from('x\n1\n2\n')) // 2
+ */
+export function estimateRows(bytes: Uint8Array): number {
+  const head = Math.min(bytes.length, 1 << 16);
+  let lines = 0;
+  for (let i = 0; i < head; i++) if (bytes[i] === 10) lines++;
+  if (lines === 0) return 1;
+  return Math.max(1, Math.round((bytes.length * lines) / head) - 1);
+}
 
 /** The smallest piece worth a thread: small when the user asked for threads, about a megabyte otherwise. */
 function minPiece(explicit: boolean): number {

@@ -1,5 +1,6 @@
+import * as os from 'os';
 import { lineChunks } from '../../../src/cli/parallel/line-chunks';
-import { mergeTables, threadUse, workerCount } from '../../../src/cli/parallel/parallel-csv';
+import { estimateRows, mergeTables, threadUse, workerCount } from '../../../src/cli/parallel/parallel-csv';
 import { scanNumericBytes } from '../../../src/cli/numeric-csv';
 import { runCli as run } from '../../helpers/run-cli';
 
@@ -65,9 +66,13 @@ describe('--workers', () => {
     const r = await run(['apply', '--model', 'm.json', '--input', 'x.csv', '--workers', '0'], { 'm.json': '{}', 'x.csv': 'x\n1\n' });
     expect(r.code).toBe(1);
     expect(r.err).toMatch(/--workers is "0"; give a whole number from 1 to 64/);
-    // Source: design choice (inputs below 8 MB stay on one thread unless asked)
+    // Source: design choice (inputs below 32 MB stay on one thread unless asked)
     expect(workerCount(undefined, 1000)).toBe(1);
     expect(workerCount('3', 10)).toBe(3);
+    // Source: design choice: a small file a heavy map (an entropic one: about 10^5 multiply-adds a row) maps for seconds gets threads.
+    expect(workerCount(undefined, 1000, 20_000 * 1e5)).toBe(Math.min(8, os.availableParallelism()));
+    // Source: worked by hand: 3 lines of 2 bytes, the header among them.
+    expect(estimateRows(Buffer.from('x\n1\n2\n'))).toBe(2);
   });
 
   test('fit and apply write the same bytes with 1 and 3 threads, warnings included', async () => {
