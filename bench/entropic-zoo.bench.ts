@@ -5,8 +5,9 @@
  *    2,000 fresh points, and the time to apply the map to `rows` fresh rows (default 200,000; apply
  *    is linear in the rows; the "1M rows s" column scales it to 1,000,000), with the worst and the median;
  *    beside it the CPU time of the apply kernel alone (TruncatedSoftmax.map on the rows already in fitted units, one
- *    thread) scaled to 1,000,000 rows, and the CPU time of the untruncated map (barycentricMap) on the same rows,
- *    measured on a tenth of them (scaled to `rows`).
+ *    thread) scaled to 1,000,000 rows, first with the kernel apply uses (its name is printed: wasm where WebAssembly
+ *    SIMD compiles) and then with the plain TypeScript kernel, their ratio, and the CPU time of the untruncated map
+ *    (barycentricMap) on the same rows, measured on a tenth of them (scaled to `rows`).
  * 2. --sweep [--factors 0.125,0.25]: on the tune half only, L2-UVP for smoothing = factor x n^(-2/(d+4)) (standardised units,
  *    where the mean column variance is 1): the sweep behind defaultEpsFactor.
  * One run per figure; the load average is printed beside each table (the machine is shared).
@@ -42,11 +43,15 @@ const d = Number(arg('d', '8'));
 function report(): void {
   const rows = Number(arg('rows', '200000'));
   console.log(`entropic on the zoo's report half, n = m = ${n}, d = ${d}, apply on ${rows} fresh rows; load average ${load()}`);
-  console.log('family     fit s  fit cpu s  iterations (transport+self)  L2-UVP %  apply s  apply cpu s  1M rows s  kernel cpu s/1M  untruncated cpu s  load');
+  console.log(
+    'family     fit s  fit cpu s  iterations (transport+self)  L2-UVP %  apply s  apply cpu s  1M rows s  kernel      cpu s/1M  typescript cpu s/1M  ratio  untruncated cpu s  load',
+  );
   const fits: number[] = [];
   const uvps: number[] = [];
   const applies: number[] = [];
   const kernels: number[] = [];
+  const plains: number[] = [];
+  let kernelName = '';
   for (const f of REPORT_FAMILIES) {
     const pair = zooPair(f, d, n, n, 1);
     const t0 = performance.now();
@@ -76,18 +81,27 @@ function report(): void {
     const kernel = new TruncatedSoftmax(p.target, h, p.eps);
     const fittedMany = { ...many, data: many.data.map((v, t) => (v - p.sourceCentre[t % d]) / p.scales[t % d]) };
     const c3 = cpuMs();
-    kernel.map(fittedMany);
+    const fast = kernel.map(fittedMany);
     const kernelCpu = ((cpuMs() - c3) / 1000) * (1e6 / rows);
     kernels.push(kernelCpu);
+    kernelName = kernel.kernel;
+    const plainKernel = new TruncatedSoftmax(p.target, h, p.eps, 'typescript');
+    const c4 = cpuMs();
+    const plain = plainKernel.map(fittedMany);
+    const plainCpu = ((cpuMs() - c4) / 1000) * (1e6 / rows);
+    plains.push(plainCpu);
+    let same = true;
+    for (let t = 0; t < fast.length && same; t++) same = Object.is(fast[t], plain[t]);
+    if (!same) console.log(`${f}: the ${kernel.kernel} and typescript kernels gave different bits`);
     fits.push(fitS);
     uvps.push(uvp);
     applies.push((applyS * 1e6) / rows);
     console.log(
-      `${f.padEnd(10)} ${fitS.toFixed(1).padStart(5)}  ${fitCpu.toFixed(1).padStart(9)}  ${its.padStart(27)}  ${uvp.toFixed(2).padStart(8)}  ${applyS.toFixed(1).padStart(7)}  ${applyCpu.toFixed(1).padStart(11)}  ${((applyS * 1e6) / rows).toFixed(1).padStart(9)}  ${kernelCpu.toFixed(1).padStart(15)}  ${fullCpu.toFixed(1).padStart(17)}  ${os.loadavg()[0].toFixed(2)}`,
+      `${f.padEnd(10)} ${fitS.toFixed(1).padStart(5)}  ${fitCpu.toFixed(1).padStart(9)}  ${its.padStart(27)}  ${uvp.toFixed(2).padStart(8)}  ${applyS.toFixed(1).padStart(7)}  ${applyCpu.toFixed(1).padStart(11)}  ${((applyS * 1e6) / rows).toFixed(1).padStart(9)}  ${kernel.kernel.padEnd(10)}  ${kernelCpu.toFixed(1).padStart(8)}  ${plainCpu.toFixed(1).padStart(19)}  ${(plainCpu / kernelCpu).toFixed(2).padStart(5)}  ${fullCpu.toFixed(1).padStart(17)}  ${os.loadavg()[0].toFixed(2)}`,
     );
   }
   console.log(
-    `worst / median: fit ${Math.max(...fits).toFixed(1)} / ${median(fits).toFixed(1)} s; L2-UVP ${Math.max(...uvps).toFixed(2)} / ${median(uvps).toFixed(2)} %; 1M rows ${Math.max(...applies).toFixed(1)} / ${median(applies).toFixed(1)} s (kernel CPU ${Math.max(...kernels).toFixed(1)} / ${median(kernels).toFixed(1)} s); load average ${load()}`,
+    `worst / median: fit ${Math.max(...fits).toFixed(1)} / ${median(fits).toFixed(1)} s; L2-UVP ${Math.max(...uvps).toFixed(2)} / ${median(uvps).toFixed(2)} %; 1M rows ${Math.max(...applies).toFixed(1)} / ${median(applies).toFixed(1)} s (kernel CPU, ${kernelName} ${Math.max(...kernels).toFixed(1)} / ${median(kernels).toFixed(1)} s, typescript ${Math.max(...plains).toFixed(1)} / ${median(plains).toFixed(1)} s); load average ${load()}`,
   );
 }
 

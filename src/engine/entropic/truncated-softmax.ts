@@ -1,4 +1,5 @@
 import type { Points } from '../points';
+import { SOFTMAX_KERNEL_HEX } from './softmax-wasm';
 
 /**
  * Softmax weights below e^-(TRUNCATION_DIGITS + log m) of the largest are left out: at most m of them, so their total is
@@ -114,6 +115,73 @@ function weightedSums4(yc: Float64Array, base: number, cand: Int32Array, weight:
   sums[3] = a3;
 }
 
+/** The exports of softmax-kernel.wat (pointers are byte offsets into the instance's memory). */
+interface KernelExports {
+  pass(
+    width: number,
+    m: number,
+    yc: number,
+    xv: number,
+    c: number,
+    dist: number,
+    first: number,
+    last: number,
+    band: number,
+    cand0: number,
+    cand1: number,
+    vals0: number,
+    vals1: number,
+    head: number,
+  ): void;
+  weights(vals: number, count: number, top: number, scale: number, table: number, floor: number, weight: number): void;
+  sums(width: number, yc: number, cand: number, weight: number, count: number, out: number): number;
+}
+
+/** A WebAssembly instance of the kernel with its memory, and where each array lives in it (byte offsets). */
+interface WasmKernel {
+  run: KernelExports;
+  f64: Float64Array;
+  i32: Int32Array;
+  yc: number;
+  c: number;
+  dist: number;
+  xv: number;
+  head: number;
+  cand: [number, number];
+  vals: [number, number];
+  weight: number;
+  table: number;
+  sums: number;
+}
+
+let compiled: WebAssembly.Module | null | undefined;
+
+/**
+ * The kernel's WebAssembly module (softmax-kernel.wat, about 1.1 kB, so a synchronous compile is allowed on a browser's
+ * main thread), compiled on first use; null where WebAssembly or its SIMD instructions are missing (the compile throws
+ * there), and the TypeScript kernel runs instead. O(module size) once.
+ * @example softmaxWasmModule() // a WebAssembly.Module in Node 20, Chromium and Edge WebView2
+ */
+export function softmaxWasmModule(): WebAssembly.Module | null {
+  if (compiled === undefined) {
+    compiled = null;
+    try {
+      if (typeof WebAssembly === 'object') {
+        const hex = SOFTMAX_KERNEL_HEX;
+        const bytes = new Uint8Array(hex.length / 2);
+        for (let t = 0; t < bytes.length; t++) bytes[t] = parseInt(hex.slice(2 * t, 2 * t + 2), 16);
+        compiled = new WebAssembly.Module(bytes);
+      }
+    } catch {
+      compiled = null;
+    }
+  }
+  return compiled;
+}
+
+/** Which implementation of the kernel's passes runs: WebAssembly SIMD, or the plain TypeScript loops. */
+export type SoftmaxKernelName = 'wasm' | 'typescript';
+
 /**
  * The entropic map of Pooladian & Niles-Weed (2021, "Entropic estimation of optimal transport maps", arXiv 2109.12004)
  * on new rows, T(x) = sum_j y_j w_j(x), w_j = softmax_j(h_j - |x - y_j|^2 / (2 eps)), with the negligible weights left
@@ -127,6 +195,18 @@ function weightedSums4(yc: Float64Array, base: number, cand: Int32Array, weight:
  * candidates s_j <= (running minimum) + band, band = 2 eps (23.1 + log m); the rows kept in the end, those within band
  * of the final minimum, are among them, so no second test over all m is needed. Only candidates are exponentiated
  * (`tableExpWeights`, z = (minimum - s_j) / (2 eps)) and summed into the weighted average.
+ *
+ * Two kernels. Where WebAssembly with its SIMD instructions compiles (Node 20, Chromium, Edge WebView2), the product
+ * pass, the exponentials and the weighted sums run in softmax-kernel.wat on f64x2 vectors: in the product pass the two
+ * lanes are the two rows of the pass (each target's coordinates are loaded once and broadcast), in the exponentials two
+ * candidates, in the weighted sums two coordinates. Elsewhere (or with kernel 'typescript') the TypeScript loops below
+ * run. Both perform the same float64 operations (no fused multiply-add) with the same association in every lane, so
+ * they give the same bits; the tests check it. The one operation that differs, the running minimum (f64x2.pmin, t < b ?
+ * t : b, where the TypeScript loop takes Math.min), gives another result only for a NaN s_j (no later value changes for
+ * a tie of +0 and -0), and a row with a NaN or infinite s_j has a NaN or infinite |x|^2 (a non-finite x, or one whose
+ * square overflows), so its rho(x) sends it to squared differences, which discard the pass's minimum and candidates.
+ * Were the summation orders of the two kernels ever to differ, only the rounding would change, not the magnitudes below:
+ * the bound holds for any order.
  *
  * Error, against the untruncated map T(x) evaluated exactly:
  * - truncation: every target left out has weight below e^-(23.1 + log m) of the largest, so together they weigh less
@@ -160,9 +240,13 @@ function weightedSums4(yc: Float64Array, base: number, cand: Int32Array, weight:
  * Row independence: every number a row's result depends on is computed by the same operations in the same order
  * whichever row shares its pass (an odd last row is paired with itself), so a row's result is bit-identical whether it
  * is mapped alone or in any batch, and rows may be split across workers freely.
- * Cost: O(r m d) for r rows, plus O(candidates d) per row; O(m d) for the chunked support and O(7 m) scratch.
+ * Cost: O(r m d) for r rows, plus O(candidates d) per row; O(m d) for the chunked support and O(7 m) scratch (with the
+ * WebAssembly kernel, a memory of its own of O(m d) bytes holding a copy of them).
  */
 export class TruncatedSoftmax {
+  /** The implementation that runs the passes ('wasm' wherever WebAssembly SIMD compiles, unless 'typescript' was asked for). */
+  readonly kernel: SoftmaxKernelName;
+  private readonly wasm: WasmKernel | null = null;
   private readonly d: number;
   private readonly m: number;
   /** The support rows, row-major as given (for rows computed by squared differences). */
@@ -181,6 +265,7 @@ export class TruncatedSoftmax {
   private readonly gammaOver2Eps: number;
   private readonly dist0: Float64Array;
   private readonly dist1: Float64Array;
+  /** In the WebAssembly kernel, these five are views of its memory. */
   private readonly cand0: Int32Array;
   private readonly cand1: Int32Array;
   /** The candidates' s_j, in candidate order (lane 0 and 1). */
@@ -199,9 +284,11 @@ export class TruncatedSoftmax {
   /**
    * @param support the rows y_j (m >= 1); h the logit offsets log b_j + g_j / eps (length m, finite); eps > 0.
    * Kept by reference, never mutated.
+   * @param kernel 'auto' (the default): the WebAssembly SIMD passes where they compile, the TypeScript ones otherwise;
+   *   'typescript': the TypeScript passes always (both give the same bits).
    * @example new TruncatedSoftmax(target, h, 0.05).map(x) // barycentricMap(x, target, logMass, g, 0.05) to 1e-10 x diameter
    */
-  constructor(support: Points, h: Float64Array, eps: number) {
+  constructor(support: Points, h: Float64Array, eps: number, kernel: 'auto' | 'typescript' = 'auto') {
     const { n: m, d, data } = support;
     this.d = d;
     this.m = m;
@@ -236,12 +323,59 @@ export class TruncatedSoftmax {
     this.gammaOver2Eps = gamma * this.inv2Eps;
     this.dist0 = new Float64Array(m);
     this.dist1 = new Float64Array(m);
-    this.cand0 = new Int32Array(m);
-    this.cand1 = new Int32Array(m);
-    this.vals0 = new Float64Array(m);
-    this.vals1 = new Float64Array(m);
-    this.weight = new Float64Array(m);
     this.xs = new Float64Array(2 * this.padded);
+    const module = kernel === 'auto' ? softmaxWasmModule() : null;
+    const wasm = module ? this.instantiate(module) : null;
+    if (wasm) {
+      this.wasm = wasm;
+      this.kernel = 'wasm';
+      this.cand0 = wasm.i32.subarray(wasm.cand[0] >> 2, (wasm.cand[0] >> 2) + m);
+      this.cand1 = wasm.i32.subarray(wasm.cand[1] >> 2, (wasm.cand[1] >> 2) + m);
+      this.vals0 = wasm.f64.subarray(wasm.vals[0] >> 3, (wasm.vals[0] >> 3) + m);
+      this.vals1 = wasm.f64.subarray(wasm.vals[1] >> 3, (wasm.vals[1] >> 3) + m);
+      this.weight = wasm.f64.subarray(wasm.weight >> 3, (wasm.weight >> 3) + m);
+    } else {
+      this.kernel = 'typescript';
+      this.cand0 = new Int32Array(m);
+      this.cand1 = new Int32Array(m);
+      this.vals0 = new Float64Array(m);
+      this.vals1 = new Float64Array(m);
+      this.weight = new Float64Array(m);
+    }
+  }
+
+  /**
+   * An instance of the WebAssembly kernel with a memory of its own holding the chunked support, c, the exponential's
+   * table and the scratch arrays; null when instantiation fails (no memory), and the TypeScript passes run.
+   */
+  private instantiate(module: WebAssembly.Module): WasmKernel | null {
+    const { m, padded, table } = this;
+    let end = 96; // bytes 0..31: the pass's counts and minima (head); 32..95: the sums
+    const take = (bytes: number): number => {
+      const at = end;
+      end += Math.ceil(bytes / 16) * 16;
+      return at;
+    };
+    const yc = take(8 * m * padded);
+    const c = take(8 * m);
+    const dist = take(16 * m);
+    const xv = take(16 * padded);
+    const cand: [number, number] = [take(4 * m), take(4 * m)];
+    // One more value and weight than targets: `weights` works on pairs and may read and write one past the count.
+    const vals: [number, number] = [take(8 * m + 8), take(8 * m + 8)];
+    const weight = take(8 * m + 8);
+    const tableAt = take(8 * table.length);
+    try {
+      const memory = new WebAssembly.Memory({ initial: Math.ceil(end / 65536) });
+      const run = new WebAssembly.Instance(module, { env: { memory } }).exports as unknown as KernelExports;
+      const f64 = new Float64Array(memory.buffer);
+      f64.set(this.yc, yc >> 3);
+      f64.set(this.c, c >> 3);
+      f64.set(table, tableAt >> 3);
+      return { run, f64, i32: new Int32Array(memory.buffer), yc, c, dist, xv, head: 0, cand, vals, weight, table: tableAt, sums: 32 };
+    } catch {
+      return null;
+    }
   }
 
   /**
@@ -250,36 +384,67 @@ export class TruncatedSoftmax {
    * @example softmax.map(points([[0, 0]])) // one mapped row
    */
   map(x: Points, out: Float64Array = new Float64Array(x.n * this.d)): Float64Array {
-    const { d, padded, xs } = this;
+    const { d, padded, xs, wasm } = this;
     const xd = x.data;
     const sqrt = Math.sqrt;
     for (let i = 0; i < x.n; i += 2) {
       const i1 = i + 1 < x.n ? i + 1 : i;
-      xs.fill(0);
-      for (let k = 0; k < d; k++) {
-        xs[k] = -2 * xd[i * d + k];
-        xs[padded + k] = -2 * xd[i1 * d + k];
+      if (wasm) {
+        // a_k = (-2 x_k of row i, -2 x_k of row i1), zero-padded, for the WebAssembly pass (lanes = the two rows).
+        const f = wasm.f64;
+        for (let k = 0, at = wasm.xv >> 3; k < padded; k++, at += 2) {
+          f[at] = k < d ? -2 * xd[i * d + k] : 0;
+          f[at + 1] = k < d ? -2 * xd[i1 * d + k] : 0;
+        }
+        this.wasmProducts(wasm);
+      } else {
+        xs.fill(0);
+        for (let k = 0; k < d; k++) {
+          xs[k] = -2 * xd[i * d + k];
+          xs[padded + k] = -2 * xd[i1 * d + k];
+        }
+        this.products();
       }
-      this.products();
-      this.finish(xd, i * d, this.dist0, this.vals0, this.cand0, this.count0, this.best0, out, sqrt);
-      if (i1 !== i) this.finish(xd, i1 * d, this.dist1, this.vals1, this.cand1, this.count1, this.best1, out, sqrt);
+      this.finish(xd, i * d, 0, this.count0, this.best0, out, sqrt);
+      if (i1 !== i) this.finish(xd, i1 * d, 1, this.count1, this.best1, out, sqrt);
     }
     return out;
   }
 
+  /** `products` in WebAssembly: one call per chunk, then the counts and minima read from its memory. */
+  private wasmProducts(wasm: WasmKernel): void {
+    const { m, widths, band } = this;
+    const last = widths.length - 1;
+    for (let q = 0, start = 0; q <= last; start += widths[q], q++) {
+      wasm.run.pass(
+        widths[q],
+        m,
+        wasm.yc + 8 * m * start,
+        wasm.xv + 16 * start,
+        wasm.c,
+        wasm.dist,
+        q === 0 ? 1 : 0,
+        q === last ? 1 : 0,
+        band,
+        wasm.cand[0],
+        wasm.cand[1],
+        wasm.vals[0],
+        wasm.vals[1],
+        wasm.head,
+      );
+    }
+    this.count0 = wasm.i32[wasm.head >> 2];
+    this.count1 = wasm.i32[(wasm.head >> 2) + 1];
+    this.best0 = wasm.f64[(wasm.head >> 3) + 1];
+    this.best1 = wasm.f64[(wasm.head >> 3) + 2];
+  }
+
   /** One row's result from its pass, or by squared differences when the product form's rounding is too large. */
-  private finish(
-    xd: Float64Array,
-    o: number,
-    dist: Float64Array,
-    vals: Float64Array,
-    cand: Int32Array,
-    count: number,
-    best: number,
-    out: Float64Array,
-    sqrt: (v: number) => number,
-  ): void {
+  private finish(xd: Float64Array, o: number, lane: 0 | 1, count: number, best: number, out: Float64Array, sqrt: (v: number) => number): void {
     const d = this.d;
+    const dist = lane ? this.dist1 : this.dist0;
+    const vals = lane ? this.vals1 : this.vals0;
+    const cand = lane ? this.cand1 : this.cand0;
     let xx = 0;
     for (let k = 0; k < d; k++) xx += xd[o + k] * xd[o + k];
     const reach = (best + xx > 0 ? best + xx : 0) + this.band;
@@ -291,7 +456,7 @@ export class TruncatedSoftmax {
       best = this.differences(xd, o, dist);
       count = this.candidates(dist, best, cand, vals);
     }
-    this.average(vals, cand, count, best, out, o);
+    this.average(lane, count, best, out, o);
   }
 
   /**
@@ -429,9 +594,21 @@ export class TruncatedSoftmax {
     return n;
   }
 
-  /** The weighted average of the candidate targets (indices cand, values s_j in vals), into out[o..o+d). O(count d). */
-  private average(vals: Float64Array, cand: Int32Array, count: number, best: number, out: Float64Array, o: number): void {
-    const { d, m, yc, widths, weight, sums } = this;
+  /** The weighted average of the lane's candidate targets (indices cand, values s_j in vals), into out[o..o+d). O(count d). */
+  private average(lane: 0 | 1, count: number, best: number, out: Float64Array, o: number): void {
+    const { d, m, yc, widths, weight, sums, wasm } = this;
+    if (wasm) {
+      const floor = -(this.table.length - 1) / 64;
+      wasm.run.weights(wasm.vals[lane], count, best, this.inv2Eps, wasm.table, floor, wasm.weight);
+      let total = 0;
+      for (let q = 0, start = 0; q < widths.length; start += widths[q], q++) {
+        total = wasm.run.sums(widths[q], wasm.yc + 8 * m * start, wasm.cand[lane], wasm.weight, count, wasm.sums);
+        for (let k = start, at = wasm.sums >> 3; k < d && k < start + widths[q]; k++) out[o + k] = wasm.f64[at + k - start] / total;
+      }
+      return;
+    }
+    const vals = lane ? this.vals1 : this.vals0;
+    const cand = lane ? this.cand1 : this.cand0;
     const total = tableExpWeights(this.table, vals, count, best, this.inv2Eps, weight);
     for (let q = 0, start = 0; q < widths.length; start += widths[q], q++) {
       if (widths[q] === 8) weightedSums8(yc, m * start, cand, weight, count, sums);

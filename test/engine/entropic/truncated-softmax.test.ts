@@ -3,6 +3,10 @@ import { TRUNCATION_DIGITS, TruncatedSoftmax, expTable, tableExpWeights } from '
 import type { Points } from '../../../src/engine/points';
 import { Random } from '../../../src/engine/stats/random';
 
+type Kernel = 'auto' | 'typescript';
+/** Both implementations of the passes: 'auto' is the WebAssembly SIMD one here (Node 20), 'typescript' the plain loops. */
+const KERNELS: Kernel[] = ['auto', 'typescript'];
+
 function cloud(n: number, d: number, seed: number, spread: number): Points {
   const r = new Random(seed);
   return { n, d, data: Float64Array.from({ length: n * d }, () => spread * r.normal()) };
@@ -52,14 +56,17 @@ function worstRelative(a: Float64Array, b: Float64Array, d: number, diameter: nu
 }
 
 /** The kernel and the untruncated map on the same support, potential and rows; returns the worst distance / diameter. */
-function compare(support: Points, x: Points, eps: number, seed: number, gSpread: number): number {
+function compare(support: Points, x: Points, eps: number, seed: number, gSpread: number, kernel: Kernel = 'auto'): number {
   const m = support.n;
   const r = new Random(seed);
   const logMass = new Float64Array(m).fill(-Math.log(m));
   const g = Float64Array.from({ length: m }, () => gSpread * r.normal());
   const h = Float64Array.from(g, (v, j) => logMass[j] + v / eps);
   const exact = barycentricMap(x, support, logMass, g, eps);
-  const fast = new TruncatedSoftmax(support, h, eps).map(x);
+  const softmax = new TruncatedSoftmax(support, h, eps, kernel);
+  // Source: design choice (Node 20 has WebAssembly SIMD, so 'auto' must pick it; 'typescript' must be honoured).
+  expect(softmax.kernel).toBe(kernel === 'auto' ? 'wasm' : 'typescript');
+  const fast = softmax.map(x);
   return worstRelative(fast, exact, x.d, diameterOf(support));
 }
 
@@ -117,7 +124,7 @@ describe('tableExpWeights', () => {
   });
 });
 
-describe('TruncatedSoftmax', () => {
+describe.each(KERNELS)('TruncatedSoftmax, kernel %p', (kernel) => {
   test.each([
     [2, 0.01],
     [5, 0.05],
@@ -126,7 +133,7 @@ describe('TruncatedSoftmax', () => {
     // Source: the bound follows from the truncation rule (weights below e^-(23.1 + log m) of the largest left out) and
     // the rounding terms of the class comment; the untruncated map is barycentricMap (every weight above e^-60).
     const x = cloud(203, d, 3, 1.5); // 203: the last pass of two rows is partial
-    expect(compare(cloud(700, d, 1, 1), x, eps, 2, 0.5)).toBeLessThanOrEqual(1e-10);
+    expect(compare(cloud(700, d, 1, 1), x, eps, 2, 0.5, kernel)).toBeLessThanOrEqual(1e-10);
   });
 
   test.each([2, 3, 5, 8, 12])('on skewed and clustered supports at d = %p it matches the untruncated map within 1e-10 x diameter', (d) => {
@@ -135,11 +142,11 @@ describe('TruncatedSoftmax', () => {
     const eps = (d / 32) * Math.pow(700, -2 / (d + 4)); // about the default smoothing's size, in squared units
     const m = 700;
     const skew = skewed(m, d, 10 + d);
-    expect(compare(skew, skewed(150, d, 20 + d), eps, 30 + d, 3 * eps)).toBeLessThanOrEqual(1e-10);
+    expect(compare(skew, skewed(150, d, 20 + d), eps, 30 + d, 3 * eps, kernel)).toBeLessThanOrEqual(1e-10);
     const clusters = clustered(m, d, 40 + d);
-    expect(compare(clusters, clustered(150, d, 50 + d), eps, 60 + d, 3 * eps)).toBeLessThanOrEqual(1e-10);
+    expect(compare(clusters, clustered(150, d, 50 + d), eps, 60 + d, 3 * eps, kernel)).toBeLessThanOrEqual(1e-10);
     // Rows between and beyond the clusters too (far tails of the softmax).
-    expect(compare(clusters, cloud(80, d, 70 + d, 4), eps, 60 + d, 3 * eps)).toBeLessThanOrEqual(1e-10);
+    expect(compare(clusters, cloud(80, d, 70 + d, 4), eps, 60 + d, 3 * eps, kernel)).toBeLessThanOrEqual(1e-10);
   });
 
   test('a support far from the origin at small eps still matches within the bound (rows taken by squared differences)', () => {
@@ -150,7 +157,7 @@ describe('TruncatedSoftmax', () => {
     const support = { n: base.n, d, data: base.data.map((v) => v + 100) };
     const near = cloud(60, d, 81, 1);
     const x = { n: near.n, d, data: near.data.map((v) => v + 100) };
-    expect(compare(support, x, 0.002, 82, 0.01)).toBeLessThanOrEqual(1e-10);
+    expect(compare(support, x, 0.002, 82, 0.01, kernel)).toBeLessThanOrEqual(1e-10);
   });
 
   test('a row gives the same bits alone, in a block of four and in a large call, at any position', () => {
@@ -159,7 +166,7 @@ describe('TruncatedSoftmax', () => {
       const support = skewed(300, d, 90 + d);
       const r = new Random(91 + d);
       const h = Float64Array.from({ length: 300 }, () => 0.3 * r.normal());
-      const softmax = new TruncatedSoftmax(support, h, 0.3); // broad weights: every bit of every logit counts
+      const softmax = new TruncatedSoftmax(support, h, 0.3, kernel); // broad weights: every bit of every logit counts
       const rows = cloud(101, d, 92 + d, 1.2);
       // Row 100 far away, so that it is taken by squared differences while its neighbours are not.
       for (let k = 0; k < d; k++) rows.data[100 * d + k] = 40 + k;
@@ -177,6 +184,30 @@ describe('TruncatedSoftmax', () => {
         const odd = softmax.map(pick([(i + 5) % 101, (i + 6) % 101, i]));
         expect(Array.from(odd.subarray(2 * d, 3 * d))).toEqual(want);
       }
+    }
+  });
+});
+
+describe('TruncatedSoftmax: the WebAssembly and TypeScript kernels', () => {
+  test.each([2, 5, 8, 12])('agree within the stated bound on skewed and clustered data at d = %p (in fact to the bit)', (d) => {
+    // Source: the class comment: both kernels are within 1e-10 x diameter of the untruncated map, so within 2e-10 of each
+    // other; design choice: they run the same float64 operations in the same order, so they must give the same bits.
+    const m = 600;
+    const eps = (d / 32) * Math.pow(m, -2 / (d + 4));
+    const r = new Random(200 + d);
+    for (const [support, rows] of [
+      [skewed(m, d, 210 + d), skewed(151, d, 220 + d)],
+      [clustered(m, d, 230 + d), clustered(151, d, 240 + d)],
+      [clustered(m, d, 230 + d), cloud(41, d, 250 + d, 4)],
+    ]) {
+      const h = Float64Array.from({ length: m }, () => (3 * r.normal()) / 2);
+      const simd = new TruncatedSoftmax(support, h, eps);
+      const plain = new TruncatedSoftmax(support, h, eps, 'typescript');
+      expect([simd.kernel, plain.kernel]).toEqual(['wasm', 'typescript']);
+      const a = simd.map(rows);
+      const b = plain.map(rows);
+      expect(worstRelative(a, b, d, diameterOf(support))).toBeLessThanOrEqual(2e-10);
+      expect(Array.from(a)).toEqual(Array.from(b));
     }
   });
 });
