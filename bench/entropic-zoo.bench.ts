@@ -8,11 +8,16 @@
  *    thread) scaled to 1,000,000 rows, first with the kernel apply uses (its name is printed: wasm where WebAssembly
  *    SIMD compiles) and then with the plain TypeScript kernel, their ratio, and the CPU time of the untruncated map
  *    (barycentricMap) on the same rows, measured on a tenth of them (scaled to `rows`).
+ *    With --compiled (after `npm run build:cli`), both kernels are timed again on the same rows in a plain node process
+ *    that loads the compiled engine (build/cli/engine/methods.js) and restores the fitted map from its JSON, since
+ *    the bench's tsx loader slows plain JavaScript code.
  * 2. --sweep [--factors 0.125,0.25]: on the tune half only, L2-UVP for smoothing = factor x n^(-2/(d+4)) (standardised units,
  *    where the mean column variance is 1): the sweep behind defaultEpsFactor.
  * One run per figure; the load average is printed beside each table (the machine is shared).
  */
+import { execFileSync } from 'child_process';
 import * as os from 'os';
+import * as path from 'path';
 import { barycentricMap } from '../src/engine/entropic/barycentric-map';
 import { fitEntropic } from '../src/engine/entropic/fit';
 import { TruncatedSoftmax } from '../src/engine/entropic/truncated-softmax';
@@ -40,6 +45,40 @@ const median = (xs: number[]): number => {
 const n = 4000;
 const d = Number(arg('d', '8'));
 
+/** Run by plain node on the compiled engine: restores the map, then times both kernels on the rows (stdin: JSON). */
+const COMPILED_TIMING = `
+const path = require('path');
+const built = process.argv[1];
+let input = '';
+process.stdin.on('data', (c) => (input += c)).on('end', () => {
+  const { json, rows, d } = JSON.parse(input);
+  const { restoreMap } = require(path.join(built, 'methods.js'));
+  const { TruncatedSoftmax } = require(path.join(built, 'entropic', 'truncated-softmax.js'));
+  const p = restoreMap(json).parts;
+  const x = { n: rows.length / d, d, data: Float64Array.from(rows, (v, t) => (v - p.sourceCentre[t % d]) / p.scales[t % d]) };
+  const h = Float64Array.from(p.g, (v, j) => p.targetLogMass[j] + v / p.eps);
+  const cpu = () => { const u = process.cpuUsage(); return (u.user + u.system) / 1000; };
+  const out = {};
+  for (const kind of ['auto', 'typescript']) {
+    const k = new TruncatedSoftmax(p.target, h, p.eps, kind);
+    const c0 = cpu();
+    k.map(x);
+    out[kind] = { name: k.kernel, ms: cpu() - c0 };
+  }
+  process.stdout.write(JSON.stringify(out));
+});`;
+
+/** CPU ms of the compiled kernels (the default one and the TypeScript one) on the rows, in a plain node process. */
+function compiledKernels(json: unknown, rows: Float64Array): { auto: { name: string; ms: number }; typescript: { name: string; ms: number } } {
+  const built = path.join(__dirname, '..', 'build', 'cli', 'engine');
+  const text = execFileSync(process.execPath, ['-e', COMPILED_TIMING, built], {
+    input: JSON.stringify({ json, rows: Array.from(rows), d }),
+    env: { ...process.env, NODE_OPTIONS: '' },
+    maxBuffer: 1 << 20,
+  }).toString();
+  return JSON.parse(text);
+}
+
 function report(): void {
   const rows = Number(arg('rows', '200000'));
   console.log(`entropic on the zoo's report half, n = m = ${n}, d = ${d}, apply on ${rows} fresh rows; load average ${load()}`);
@@ -51,6 +90,8 @@ function report(): void {
   const applies: number[] = [];
   const kernels: number[] = [];
   const plains: number[] = [];
+  const compiledFast: number[] = [];
+  const compiledPlain: number[] = [];
   let kernelName = '';
   for (const f of REPORT_FAMILIES) {
     const pair = zooPair(f, d, n, n, 1);
@@ -93,16 +134,31 @@ function report(): void {
     let same = true;
     for (let t = 0; t < fast.length && same; t++) same = Object.is(fast[t], plain[t]);
     if (!same) console.log(`${f}: the ${kernel.kernel} and typescript kernels gave different bits`);
+    const compiled = process.argv.includes('--compiled') ? compiledKernels(map.toJSON(), many.data) : null;
     fits.push(fitS);
     uvps.push(uvp);
     applies.push((applyS * 1e6) / rows);
     console.log(
       `${f.padEnd(10)} ${fitS.toFixed(1).padStart(5)}  ${fitCpu.toFixed(1).padStart(9)}  ${its.padStart(27)}  ${uvp.toFixed(2).padStart(8)}  ${applyS.toFixed(1).padStart(7)}  ${applyCpu.toFixed(1).padStart(11)}  ${((applyS * 1e6) / rows).toFixed(1).padStart(9)}  ${kernel.kernel.padEnd(10)}  ${kernelCpu.toFixed(1).padStart(8)}  ${plainCpu.toFixed(1).padStart(19)}  ${(plainCpu / kernelCpu).toFixed(2).padStart(5)}  ${fullCpu.toFixed(1).padStart(17)}  ${os.loadavg()[0].toFixed(2)}`,
     );
+    if (compiled) {
+      const fastC = (compiled.auto.ms / 1000) * (1e6 / rows);
+      const plainC = (compiled.typescript.ms / 1000) * (1e6 / rows);
+      compiledFast.push(fastC);
+      compiledPlain.push(plainC);
+      console.log(
+        `  compiled (build/cli, plain node): ${compiled.auto.name} ${fastC.toFixed(1)} s/1M, ${compiled.typescript.name} ${plainC.toFixed(1)} s/1M, ratio ${(plainC / fastC).toFixed(2)}; load ${os.loadavg()[0].toFixed(2)}`,
+      );
+    }
   }
   console.log(
     `worst / median: fit ${Math.max(...fits).toFixed(1)} / ${median(fits).toFixed(1)} s; L2-UVP ${Math.max(...uvps).toFixed(2)} / ${median(uvps).toFixed(2)} %; 1M rows ${Math.max(...applies).toFixed(1)} / ${median(applies).toFixed(1)} s (kernel CPU, ${kernelName} ${Math.max(...kernels).toFixed(1)} / ${median(kernels).toFixed(1)} s, typescript ${Math.max(...plains).toFixed(1)} / ${median(plains).toFixed(1)} s); load average ${load()}`,
   );
+  if (compiledFast.length) {
+    console.log(
+      `compiled kernels, worst / median s per 1M rows: ${kernelName} ${Math.max(...compiledFast).toFixed(1)} / ${median(compiledFast).toFixed(1)}, typescript ${Math.max(...compiledPlain).toFixed(1)} / ${median(compiledPlain).toFixed(1)}`,
+    );
+  }
 }
 
 function sweep(): void {
