@@ -96,7 +96,7 @@
   (func (export "weights")
     (param $vals i32) (param $count i32) (param $top f64) (param $scale f64) (param $table i32) (param $floor f64)
     (param $weight i32)
-    (local $t i32) (local $z v128) (local $k v128) (local $r v128) (local $r2 v128) (local $e v128)
+    (local $t i32) (local $z v128) (local $kd v128) (local $k v128) (local $r v128) (local $r2 v128) (local $e v128)
     (local $topv v128) (local $scalev v128) (local $floorv v128)
     (local.set $topv (f64x2.splat (local.get $top)))
     (local.set $scalev (f64x2.splat (local.get $scale)))
@@ -109,12 +109,14 @@
           (local.get $scalev)))
         ;; z > floor ? z : floor
         (local.set $z (f64x2.pmax (local.get $floorv) (local.get $z)))
-        (local.set $k (i32x4.trunc_sat_f64x2_s_zero (f64x2.mul (local.get $z) (f64x2.splat (f64.const -64)))))
-        (local.set $r (f64x2.add (local.get $z) (f64x2.mul (f64x2.convert_low_i32x4_s (local.get $k)) (f64x2.splat (f64.const 0.015625)))))
+;; k = trunc(-64 z), an integer in [0, table length), as a float; its bits plus 2^52 hold it as an integer in the low word
+        (local.set $kd (f64x2.trunc (f64x2.mul (local.get $z) (f64x2.splat (f64.const -64)))))
+        (local.set $k (f64x2.add (local.get $kd) (f64x2.splat (f64.const 0x1p52))))
+        (local.set $r (f64x2.add (local.get $z) (f64x2.mul (local.get $kd) (f64x2.splat (f64.const 0.015625)))))
         (local.set $r2 (f64x2.mul (local.get $r) (local.get $r)))
         (local.set $e
           (v128.load64_lane 1
-            (i32.add (local.get $table) (i32.shl (i32x4.extract_lane 1 (local.get $k)) (i32.const 3)))
+            (i32.add (local.get $table) (i32.shl (i32x4.extract_lane 2 (local.get $k)) (i32.const 3)))
             (v128.load64_splat (i32.add (local.get $table) (i32.shl (i32x4.extract_lane 0 (local.get $k)) (i32.const 3))))))
         (v128.store (i32.add (local.get $weight) (i32.shl (local.get $t) (i32.const 3)))
           (f64x2.mul (local.get $e)
