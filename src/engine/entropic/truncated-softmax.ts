@@ -233,9 +233,12 @@ export type SoftmaxKernelName = 'wasm' | 'typescript';
  * Speed. At the default smoothing the kept set is large: on that bench the median row keeps 2,905 of 4,000 targets
  * (skewed family), 2,609 (shifted), 1,708 (clustered) and 2,599 (tied), and the candidates exceed the kept rows by 2-6 %.
  * A row costs m d multiply-adds for the products, one table exponential and d multiply-adds per candidate. At m = 4,000,
- * d = 8 on one thread that is 28-33 us per row bundled with esbuild and run in Node, 34-39 us under the bench's tsx
- * loader, against 70-84 and 99-124 us for the sums of squared differences with Math.exp it replaced (one run of both,
- * load average 0.9; `npm run bench -- entropic-zoo` prints the kernel's CPU time per 1,000,000 rows).
+ * d = 8 on one thread the TypeScript kernel took 28-33 us per row bundled with esbuild and run in Node, 34-39 us under
+ * the bench's tsx loader, against 70-84 and 99-124 us for the sums of squared differences with Math.exp it replaced
+ * (one run of both, load average 0.9). The WebAssembly kernel takes 12-14 us per row on those families under tsx against
+ * 34-41 us for the TypeScript one in the same run (2.9-3.0x), and 12-20 us against 30-43 us compiled by tsc and run in
+ * plain Node (2.1-2.7x; one run, load average 0.8-1.2; `npm run build:cli`, then
+ * `npm run bench -- entropic-zoo --rows 100000 --compiled` prints both kernels' CPU time per 1,000,000 rows).
  *
  * Row independence: every number a row's result depends on is computed by the same operations in the same order
  * whichever row shares its pass (an odd last row is paired with itself), so a row's result is bit-identical whether it
