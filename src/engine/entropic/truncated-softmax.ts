@@ -159,7 +159,7 @@ let compiled: WebAssembly.Module | null | undefined;
 /**
  * The kernel's WebAssembly module (softmax-kernel.wat, about 1.1 kB, so a synchronous compile is allowed on a browser's
  * main thread), compiled on first use; null where WebAssembly or its SIMD instructions are missing (the compile throws
- * there), and the TypeScript kernel runs instead. O(module size) once.
+ * there), and the TypeScript kernel runs instead. Never throws. O(module size) once.
  * @example softmaxWasmModule() // a WebAssembly.Module in Node 20, Chromium and Edge WebView2
  */
 export function softmaxWasmModule(): WebAssembly.Module | null {
