@@ -1,6 +1,6 @@
 import { assembleKernel, moduleText } from '../../../scripts/build-wasm';
 import { SOFTMAX_KERNEL_HEX } from '../../../src/engine/entropic/softmax-wasm';
-import { softmaxWasmModule } from '../../../src/engine/entropic/truncated-softmax';
+import { TruncatedSoftmax, softmaxWasmModule } from '../../../src/engine/entropic/truncated-softmax';
 import * as fs from 'fs';
 import * as path from 'path';
 
@@ -22,5 +22,36 @@ describe('the entropic kernel WebAssembly module', () => {
     expect(module).not.toBeNull();
     const names = WebAssembly.Module.exports(module as WebAssembly.Module).map((e) => e.name);
     expect(names.sort()).toEqual(['pass', 'sums', 'weights']);
+  });
+
+  test('where the module does not compile (no WebAssembly SIMD), the TypeScript kernel runs, with the same results', () => {
+    // Source: design choice (the engine must work on hosts without WebAssembly SIMD; both kernels give the same bits).
+    const support = { n: 50, d: 3, data: Float64Array.from({ length: 150 }, (_, t) => Math.sin(t * 1.7)) };
+    const rows = { n: 5, d: 3, data: Float64Array.from({ length: 15 }, (_, t) => Math.cos(t * 0.9)) };
+    const h = Float64Array.from({ length: 50 }, (_, j) => 0.1 * Math.cos(j));
+    const saved = globalThis.WebAssembly;
+    const failing = Object.create(saved, {
+      Module: {
+        value: function () {
+          throw new saved.CompileError('no SIMD here');
+        },
+      },
+    });
+    let kernel = '';
+    let mapped = new Float64Array(0);
+    try {
+      globalThis.WebAssembly = failing;
+      jest.isolateModules(() => {
+        const fresh = require('../../../src/engine/entropic/truncated-softmax');
+        expect(fresh.softmaxWasmModule()).toBeNull();
+        const softmax = new fresh.TruncatedSoftmax(support, h, 0.2);
+        kernel = softmax.kernel;
+        mapped = softmax.map(rows);
+      });
+    } finally {
+      globalThis.WebAssembly = saved;
+    }
+    expect(kernel).toBe('typescript');
+    expect(Array.from(mapped)).toEqual(Array.from(new TruncatedSoftmax(support, h, 0.2).map(rows)));
   });
 });
