@@ -1,3 +1,5 @@
+import { POW10 as SHARED_POW10, toDecimal as sharedToDecimal, tpErr as sharedTpErr, twoProd as sharedTwoProd } from './exact-decimal';
+
 /**
  * Numbers written as bytes, exactly as `String(x)` writes them, without making a string.
  *
@@ -20,42 +22,28 @@
  * Cost: O(1) per number, about a third of String(x) plus copying its characters.
  */
 
-const P10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
+// Bound once: the compiled module would otherwise read them off the other module's exports at every number.
+const POW10 = SHARED_POW10;
+const toDecimal = sharedToDecimal;
+const tpErr = sharedTpErr;
+const twoProd = sharedTwoProd;
 const TWO52 = 4503599627370496;
 const TWO53 = 9007199254740992;
-const SPLIT = 134217729; // 2^27 + 1
 /** The longest text writeNumber writes: a sign, "0.00000", 17 digits. */
 export const NUMBER_TEXT_MAX = 26;
 
 // Scratch of the number being written. Doubles live in a typed array: a module-level `let` holding a double is a
 // boxed number, and each write to it would allocate.
-const reg = new Float64Array(4);
-/**
- * reg[TP]: the exact error of the last twoProd. reg[HI] + reg[LO]: the integer s (both integers, LO small) of the last
- * `nearest`, and reg[DELTA] = x * 10^p - s (to about 1e-16).
- */
-const TP = 0;
-const HI = 1;
-const LO = 2;
-const DELTA = 3;
+const reg = new Float64Array(3);
+/** reg[HI] + reg[LO]: the integer s (both integers, LO small) of the last `nearest`, and reg[DELTA] = x * 10^p - s (to about 1e-16). */
+const HI = 0;
+const LO = 1;
+const DELTA = 2;
 /** 2^(i - 100), for the half-spacing of doubles in [1e-6, 1e21). */
 const POW2 = Float64Array.from({ length: 200 }, (_, i) => Math.pow(2, i - 100));
 const digits = new Uint8Array(17);
 /** The two digits of 0..99: TENS_UNIT[2r] and TENS_UNIT[2r + 1]. */
 const TENS_UNIT = Uint8Array.from({ length: 200 }, (_, i) => (i % 2 === 0 ? Math.floor(i / 20) : (i >> 1) % 10));
-
-/** a * b rounded; the exact error a * b - product left in reg[TP] (Dekker 1971). */
-function twoProd(a: number, b: number): number {
-  const p = a * b;
-  let t = SPLIT * a;
-  const ah = t - (t - a);
-  const al = a - ah;
-  t = SPLIT * b;
-  const bh = t - (t - b);
-  const bl = b - bh;
-  reg[TP] = ah * bh - p + ah * bl + al * bh + al * bl;
-  return p;
-}
 
 /**
  * The integer nearest x * 10^p (the even one at an exact half), into reg; false when x * 10^p is within 1e-9 of a half
@@ -66,14 +54,14 @@ function nearest(x: number, p: number): boolean {
   let hi: number;
   let lo: number;
   if (p >= 0) {
-    hi = twoProd(x, P10[p]);
-    lo = reg[TP];
+    hi = twoProd(x, POW10[p]);
+    lo = tpErr[0];
   } else {
-    const q = P10[-p];
+    const q = POW10[-p];
     hi = x / q;
     const ph = twoProd(hi, q);
     // x - hi * q is a double (the remainder of a rounded quotient), so these two subtractions are exact.
-    lo = (x - ph - reg[TP]) / q;
+    lo = (x - ph - tpErr[0]) / q;
   }
   if (hi < TWO52) {
     const f = Math.floor(hi);
@@ -124,15 +112,15 @@ function decimalExponent(v: number): number {
 
 /** Whether v < 10^e exactly, for -22 <= e <= 22 (10^-e times v held exactly as a pair when e < 0). */
 function below(v: number, e: number): boolean {
-  if (e >= 0) return v < P10[e];
-  const hi = twoProd(v, P10[-e]);
-  return hi < 1 || (hi === 1 && reg[TP] < 0);
+  if (e >= 0) return v < POW10[e];
+  const hi = twoProd(v, POW10[-e]);
+  return hi < 1 || (hi === 1 && tpErr[0] < 0);
 }
 
 /** Index of 10^0 in TEN. */
 const TEN_AT = 10;
 /** 10^e as the nearest double, for e = -10..22. */
-const TEN = Float64Array.from({ length: 33 }, (_, i) => (i >= TEN_AT ? P10[i - TEN_AT] : 1 / P10[TEN_AT - i]));
+const TEN = Float64Array.from({ length: 33 }, (_, i) => (i >= TEN_AT ? POW10[i - TEN_AT] : 1 / POW10[TEN_AT - i]));
 /**
  * 1 where that double lies below the true 10^e (then v < 10^e exactly when v <= TEN), 0 where it is 10^e itself or lies
  * above (then v < 10^e exactly when v < TEN): decided exactly by `below`.
@@ -144,23 +132,11 @@ function readsBack(x: number, p: number, sHi: number, sLo: number): number {
   const s = sHi + sLo;
   if (s < TWO53 && s - sHi === sLo) {
     // Clinger's exact case: one correctly rounded operation on exact doubles.
-    const v = p >= 0 ? s / P10[p] : s * P10[-p];
+    const v = p >= 0 ? s / POW10[p] : s * POW10[-p];
     return v === x ? 1 : 0;
   }
-  let A: number;
-  let B: number;
-  if (p >= 0) {
-    const q = P10[p];
-    A = sHi / q;
-    const ph = twoProd(A, q);
-    B = (sHi - ph - reg[TP] + sLo) / q;
-  } else {
-    A = twoProd(sHi, P10[-p]);
-    B = reg[TP] + sLo * P10[-p];
-  }
-  const v = A + B;
-  const margin = Math.abs(A) * 8.077935669463161e-28; // 2^-90, far above the pair's error
-  if (A + (B + margin) !== v || A + (B - margin) !== v) return -1;
+  const v = toDecimal(sHi, sLo, 1, -p);
+  if (v !== v) return -1;
   return v === x ? 1 : 0;
 }
 
@@ -202,9 +178,9 @@ function spell(k: number, hi: number, lo: number, lowDigits: number): number {
  * only near that boundary (or at a power of two, where the spacing below is narrower) is it read back.
  */
 function check(v: number, p: number, hi: number, lo: number, lowDigits: number, dist: number, halfUlp: number, powerOfTwo: boolean): number {
-  const limit = p >= 0 ? halfUlp * P10[p] : halfUlp / P10[-p];
+  const limit = p >= 0 ? halfUlp * POW10[p] : halfUlp / POW10[-p];
   if (!powerOfTwo && Math.abs(dist - limit) > 1e-6 * limit) return dist < limit ? 1 : 0;
-  return readsBack(v, p, hi * P10[lowDigits], lo);
+  return readsBack(v, p, hi * POW10[lowDigits], lo);
 }
 
 /**
@@ -264,7 +240,7 @@ export function writeNumber(x: number, out: Uint8Array, at: number): number {
     if (Math.abs(f - 0.5) < 1e-9) {
       // Two candidates about equally near: when neither can read back (half the grid step is beyond half the spacing of
       // doubles), go on to more digits; at an exact half (delta is exact for p >= 0) where both do, the even one.
-      const limit = p - j >= 0 ? halfUlp * P10[p - j] : halfUlp / P10[j - p];
+      const limit = p - j >= 0 ? halfUlp * POW10[p - j] : halfUlp / POW10[j - p];
       if (0.5 > limit * (1 + 1e-6) && !powerOfTwo) continue;
       if (p < 0 || 2 * num !== unit) return -1;
       up = q % 2 === 0 ? 0 : 1;
@@ -272,10 +248,10 @@ export function writeNumber(x: number, out: Uint8Array, at: number): number {
     let hi = ai;
     let lo = q + up;
     const lowDigits = 9 - j;
-    if (lo === P10[lowDigits]) {
+    if (lo === POW10[lowDigits]) {
       lo = 0;
       hi++;
-      if (hi === P10[8]) {
+      if (hi === POW10[8]) {
         if (v === power) return writeOne(out, at, e + 2);
         continue;
       }

@@ -1,4 +1,5 @@
 import { csvCell } from './csv';
+import { POW10 as SHARED_POW10, toDecimal as sharedToDecimal } from './exact-decimal';
 
 /**
  * Reads CSV text straight into one typed array per column, in one pass, with
@@ -34,7 +35,6 @@ export interface NumericTable {
   readonly texts: string[];
 }
 
-const POW10 = [1, 1e1, 1e2, 1e3, 1e4, 1e5, 1e6, 1e7, 1e8, 1e9, 1e10, 1e11, 1e12, 1e13, 1e14, 1e15, 1e16, 1e17, 1e18, 1e19, 1e20, 1e21, 1e22];
 const COMMA = 44;
 const POINT = 46;
 const LF = 10;
@@ -42,6 +42,9 @@ const CR = 13;
 const QUOTE = 34;
 /** The pattern dialect.ts rewrites with a decimal point (an unquoted number written with a decimal comma). */
 const COMMA_NUMBER = /^\s*[+-]?(\d+,?\d*|,\d+)([eE][+-]?\d+)?\s*$/;
+// Bound once: the compiled module would otherwise read them off the other module's exports at every field.
+const POW10 = SHARED_POW10;
+const toDecimal = sharedToDecimal;
 /** A lone UTF-16 surrogate: such text has no UTF-8 bytes that read back the same. */
 const LONE_SURROGATE = /[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 
@@ -238,55 +241,6 @@ function classify(a: number, b: number, quoted: boolean): void {
   }
   valueSlot[0] = v;
   kind = v - v === 0 ? NUMBER : NON_FINITE;
-}
-
-const SPLIT = 134217729; // 2^27 + 1, Dekker's splitting constant
-/** The double-double error of the last twoProd: a * b = product + tpErr[0] exactly (a typed-array slot, as valueSlot). */
-const tpErr = new Float64Array(1);
-
-/** a * b rounded, leaving the exact rounding error in tpErr[0] (Dekker, "A floating-point technique for extending the available precision", 1971). */
-function twoProd(a: number, b: number): number {
-  const p = a * b;
-  let t = SPLIT * a;
-  const ah = t - (t - a);
-  const al = a - ah;
-  t = SPLIT * b;
-  const bh = t - (t - b);
-  const bl = b - bh;
-  tpErr[0] = ah * bh - p + ah * bl + al * bh + al * bl;
-  return p;
-}
-
-/**
- * The double nearest to (m * scale + ml) * 10^e10, for m < 2^53, scale = 10^nl (nl 1..4), ml < scale and |e10| <= 22, or NaN
- * when it cannot be sure. The integer is held exactly as a pair of doubles (hi + lo, 106 bits, it needs at most 67); one
- * product or quotient by the exact power of ten in pair arithmetic gives the value to about 2^-100 of itself, A + B.
- * The nearest double to A + B is the answer unless the true value and A + B lie on either side of a rounding boundary:
- * so A + B is moved by 2^-90 of itself either way, far more than its error, and when both still round to the same
- * double that is the answer; otherwise (a value within 2^-90 of a tie, rare) NaN, and the caller asks Number().
- */
-function toDecimal(m: number, ml: number, scale: number, e10: number): number {
-  // hi + lo = m * scale + ml exactly: the product is exact as a pair, and the small integers add exactly.
-  const ph = twoProd(m, scale);
-  const s = ph + ml;
-  const t = ml - (s - ph) + tpErr[0];
-  const hi = s + t;
-  const lo = t - (hi - s);
-  let A: number;
-  let B: number;
-  if (e10 >= 0) {
-    const p = POW10[e10];
-    A = twoProd(hi, p);
-    B = tpErr[0] + lo * p;
-  } else {
-    const q = POW10[-e10];
-    A = hi / q;
-    const p1 = twoProd(A, q);
-    B = (hi - p1 - tpErr[0] + lo) / q;
-  }
-  const v = A + B;
-  const margin = Math.abs(A) * 8.077935669463161e-28; // 2^-90
-  return A + (B + margin) === v && A + (B - margin) === v ? v : NaN;
 }
 
 function generic(field: string): void {
