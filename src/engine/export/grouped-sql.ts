@@ -3,7 +3,7 @@ import { checkGroupedMapJSON } from '../groups/grouped-json';
 import type { GroupedMapJSON } from '../groups/grouped-map';
 import type { MapJSON } from '../map';
 import { restoreMap } from '../methods';
-import { cellJoin, insideSql, knotParts } from './knot-sql';
+import { bucketSql, cellJoin, insideSql, knotHead, knotParts } from './knot-sql';
 import { affineTerms, exportFrame, knotTable, mapExpressions, selectText, type MapSql, type SqlOptions } from './map-sql';
 import { networkSQL, type FrameJSON, type NetworkJSON } from './network-sql';
 import { sqlName, sqlNumber } from './sql-text';
@@ -119,21 +119,29 @@ function stackedKnots(
   const c = `${id}_s`;
   const ctes = [`${p} AS (SELECT * FROM (VALUES\n    ${heads.join(',\n    ')}) AS v(grp, lo, hi, k0, k1, scale, qmax, y_first, y_last, slope_lo, slope_hi))`];
   const joins = [`LEFT JOIN ${p} ON ${p}.grp = ${group}`];
-  const below = tails === 'linear' ? `${p}.y_first + ${p}.slope_lo * (${x} - ${p}.lo)` : `${p}.y_first`;
-  const above = tails === 'linear' ? `${p}.y_last + ${p}.slope_hi * (${x} - ${p}.hi)` : `${p}.y_last`;
+  const col = (c: string): string => `${p}.${c}`;
+  const v = {
+    lo: col('lo'),
+    hi: col('hi'),
+    k0: col('k0'),
+    kEnd: col('k1'),
+    first: col('y_first'),
+    last: col('y_last'),
+    slopeLo: col('slope_lo'),
+    slopeHi: col('slope_hi'),
+    qmax: col('qmax'),
+    scale: col('scale'),
+  };
   let inside = `${p}.y_first`;
   if (grid.length > 0) {
     ctes.push(
       `${g} AS (SELECT * FROM (VALUES\n    ${grid.join(',\n    ')}) AS v(grp, q, start, scale, base, m))`,
       `${c} AS (SELECT * FROM (VALUES\n    ${cells.join(',\n    ')}) AS v(grp, cell, x0, x1, y0, y1))`,
     );
-    const bucket = `CASE WHEN ${x} >= ${p}.k0 AND ${x} < ${p}.k1 THEN LEAST(${p}.qmax, CAST(FLOOR((${x} - ${p}.k0) * ${p}.scale) AS BIGINT)) END`;
-    joins.push(`LEFT JOIN ${g} ON ${g}.grp = ${p}.grp AND ${g}.q = ${bucket}`, `LEFT JOIN ${c} ON ${c}.grp = ${p}.grp AND ${cellJoin(c, g, x)}`);
+    joins.push(`LEFT JOIN ${g} ON ${g}.grp = ${p}.grp AND ${g}.q = ${bucketSql(x, v)}`, `LEFT JOIN ${c} ON ${c}.grp = ${p}.grp AND ${cellJoin(c, g, x)}`);
     inside = insideSql(method === 'step' ? 'step' : 'linear', c, x);
   }
-  const expression = (fallback: string): string =>
-    `CASE WHEN ${x} IS NULL THEN NULL WHEN ${p}.grp IS NULL THEN ${fallback} WHEN ${x} < ${p}.lo THEN ${below} WHEN ${x} > ${p}.hi THEN ${above} ` +
-    `WHEN ${x} < ${p}.k0 THEN ${p}.y_first WHEN ${x} >= ${p}.k1 THEN ${p}.y_last ELSE ${inside} END`;
+  const expression = (fallback: string): string => `${knotHead(x, v, tails, `WHEN ${p}.grp IS NULL THEN ${fallback} `)} ELSE ${inside} END`;
   return { ctes, joins, expression };
 }
 

@@ -50,19 +50,65 @@ export interface KnotSql {
 export function knotSql(t: KnotTable, x: string, tails: 'clamp' | 'linear', id: string, where: string): KnotSql {
   const k = knotParts(t, where);
   const n = sqlNumber;
-  const below = tails === 'linear' ? `${n(k.first)} + ${n(k.slopeLo)} * (${x} - ${n(k.lo)})` : n(k.first);
-  const above = tails === 'linear' ? `${n(k.last)} + ${n(k.slopeHi)} * (${x} - ${n(k.hi)})` : n(k.last);
-  const head = `CASE WHEN ${x} IS NULL THEN NULL WHEN ${x} < ${n(k.lo)} THEN ${below} WHEN ${x} > ${n(k.hi)} THEN ${above} WHEN ${x} < ${n(k.k0)} THEN ${n(k.first)} WHEN ${x} >= ${n(k.kEnd)} THEN ${n(k.last)}`;
-  if (k.grid.length === 0) return { ctes: [], joins: [], expression: `${head} ELSE ${n(k.first)} END` };
+  const v = {
+    lo: n(k.lo),
+    hi: n(k.hi),
+    k0: n(k.k0),
+    kEnd: n(k.kEnd),
+    first: n(k.first),
+    last: n(k.last),
+    slopeLo: n(k.slopeLo),
+    slopeHi: n(k.slopeHi),
+    qmax: String(k.buckets - 1),
+    scale: n(k.scale),
+  };
+  const head = knotHead(x, v, tails);
+  if (k.grid.length === 0) return { ctes: [], joins: [], expression: `${head} ELSE ${v.first} END` };
   const g = `${id}_g`;
   const c = `${id}_s`;
   const ctes = [
     `${g} AS (SELECT * FROM (VALUES\n    ${k.grid.map((r) => `(${r[0]}, ${n(r[1])}, ${n(r[2])}, ${r[3]}, ${r[4]})`).join(',\n    ')}) AS v(q, start, scale, base, m))`,
     `${c} AS (SELECT * FROM (VALUES\n    ${k.cells.map((r) => `(${r[0]}, ${n(r[1])}, ${n(r[2])}, ${n(r[3])}, ${n(r[4])})`).join(',\n    ')}) AS v(cell, x0, x1, y0, y1))`,
   ];
-  const bucket = `CASE WHEN ${x} >= ${n(k.k0)} AND ${x} < ${n(k.kEnd)} THEN LEAST(${k.buckets - 1}, CAST(FLOOR((${x} - ${n(k.k0)}) * ${n(k.scale)}) AS BIGINT)) END`;
-  const joins = [`LEFT JOIN ${g} ON ${g}.q = ${bucket}`, `LEFT JOIN ${c} ON ${cellJoin(c, g, x)}`];
+  const joins = [`LEFT JOIN ${g} ON ${g}.q = ${bucketSql(x, v)}`, `LEFT JOIN ${c} ON ${cellJoin(c, g, x)}`];
   return { ctes, joins, expression: `${head} ELSE ${insideSql(t.kind, c, x)} END` };
+}
+
+/**
+ * A knot map's numbers as SQL: literals for one map (knotSql), columns of a joined table for a map by group
+ * (grouped-sql.ts), so both write the same expressions.
+ */
+export interface KnotTerms {
+  readonly lo: string;
+  readonly hi: string;
+  readonly k0: string;
+  readonly kEnd: string;
+  readonly first: string;
+  readonly last: string;
+  readonly slopeLo: string;
+  readonly slopeHi: string;
+  /** The last bucket of the level-1 grid, and its scale (buckets per unit of x). */
+  readonly qmax: string;
+  readonly scale: string;
+}
+
+/**
+ * The start of a knot map's CASE (without ELSE ... END): NULL stays NULL; `also` (optional WHEN clauses) comes next;
+ * then the tails outside [lo, hi] (clamp: the end value; linear: the end value plus the end slope times the distance)
+ * and the ends of the knots. O(1).
+ */
+export function knotHead(x: string, v: KnotTerms, tails: 'clamp' | 'linear', also = ''): string {
+  const below = tails === 'linear' ? `${v.first} + ${v.slopeLo} * (${x} - ${v.lo})` : v.first;
+  const above = tails === 'linear' ? `${v.last} + ${v.slopeHi} * (${x} - ${v.hi})` : v.last;
+  return (
+    `CASE WHEN ${x} IS NULL THEN NULL ${also}WHEN ${x} < ${v.lo} THEN ${below} WHEN ${x} > ${v.hi} THEN ${above} ` +
+    `WHEN ${x} < ${v.k0} THEN ${v.first} WHEN ${x} >= ${v.kEnd} THEN ${v.last}`
+  );
+}
+
+/** The level-1 bucket of x, NULL outside [k0, kEnd). O(1). */
+export function bucketSql(x: string, v: KnotTerms): string {
+  return `CASE WHEN ${x} >= ${v.k0} AND ${x} < ${v.kEnd} THEN LEAST(${v.qmax}, CAST(FLOOR((${x} - ${v.k0}) * ${v.scale}) AS BIGINT)) END`;
 }
 
 /** The join condition that picks the one segment of x's cell: the cell id from the bucket row g, then the range. */
