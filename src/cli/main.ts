@@ -328,6 +328,21 @@ function mapCells(map: TransportMap, t: Table, command: 'apply' | 'invert'): { c
 /** Maps the columns of an input CSV the model knows, passing other columns through unchanged. */
 async function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply' | 'invert', threads: Threads): Promise<void> {
   const { map, text: model } = loadModelText(io, need(flags, 'model', command));
+  const rows = await mapFileRows(io, flags, command, threads, map, model);
+  // This call's own rows outside the fitted range, worded by what the method does there (not by the tails setting alone).
+  const w = extrapolationWarning(map, rows, command);
+  if (w) io.stderr(`remap: warning: ${oneLine(w.message)} ${w.action}\n`);
+}
+
+/** Maps the input file and writes the output; returns the rows mapped and how many lay outside the fitted range. */
+async function mapFileRows(
+  io: CliIO,
+  flags: Record<string, string>,
+  command: 'apply' | 'invert',
+  threads: Threads,
+  map: TransportMap,
+  model: string,
+): Promise<{ n: number; outside: number }> {
   const inputPath = need(flags, 'input', command);
   const input = io.readInput?.(inputPath);
   if (input) {
@@ -337,26 +352,19 @@ async function mapFile(io: CliIO, flags: Record<string, string>, command: 'apply
       workers > 1 ? await mapInParallel(threads.pool(workers), input.bytes, inputPath, input.dialect, model, command, flags.workers !== undefined) : null;
     if (done) {
       writeInPieces(io, flags.out, (sink) => done.pieces.forEach((p) => sink(p)));
-      const outside = extrapolationWarning(map, { n: done.n, d: map.d, data: new Float64Array(0), outside: done.outside }, command);
-      if (outside) io.stderr(`remap: warning: ${oneLine(outside.message)} ${outside.action}\n`);
-      return;
+      return done;
     }
   }
   const table = input ? scanNumericBytes(input.bytes, inputPath, input.dialect) : scanNumericCSV(readText(io, inputPath), inputPath);
   const fast = table && mapTable(table, map, command);
-  let mapped: Mapped;
   if (fast) {
-    mapped = fast.mapped;
     writeInPieces(io, flags.out, fast.write);
-  } else {
-    const general = mapCells(map, readTable(inputPath, readText(io, inputPath)), command);
-    mapped = general.mapped;
-    if (flags.out) io.writeFile(flags.out, general.csv);
-    else io.stdout(general.csv);
+    return fast.mapped;
   }
-  // This call's own rows outside the fitted range, worded by what the method does there (not by the tails setting alone).
-  const outside = extrapolationWarning(map, mapped, command);
-  if (outside) io.stderr(`remap: warning: ${oneLine(outside.message)} ${outside.action}\n`);
+  const general = mapCells(map, readTable(inputPath, readText(io, inputPath)), command);
+  if (flags.out) io.writeFile(flags.out, general.csv);
+  else io.stdout(general.csv);
+  return general.mapped;
 }
 
 /** Writes output made in pieces to --out (or stdout): piece by piece where the IO can, else joined once. */

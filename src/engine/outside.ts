@@ -57,7 +57,7 @@ export function outsideText(method: MethodName, settings: Settings, own?: string
  * @param verb 'apply' (default) or 'invert': which fitted range the rows were compared with.
  * @example extrapolationWarning(map, map.apply(column([0, 99]))) // { code: 'extrapolation', message: '1 of 2 rows (50.0%) ...', action: '...' }
  */
-export function extrapolationWarning(map: TransportMap, mapped: Mapped, verb: 'apply' | 'invert' = 'apply'): Warning | null {
+export function extrapolationWarning(map: TransportMap, mapped: Pick<Mapped, 'n' | 'outside'>, verb: 'apply' | 'invert' = 'apply'): Warning | null {
   if (!(mapped.outside > 0)) return null;
   const side = verb === 'apply' ? 'source' : 'target';
   const share = mapped.outside / Math.max(1, mapped.n);
