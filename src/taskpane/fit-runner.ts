@@ -1,7 +1,7 @@
 import { RemapError } from '../engine/errors';
 import type { Progress } from '../engine/map';
 import { runFitJob } from '../fits/worker/cells-job';
-import type { FitDone, FitReply, FitRequest } from '../fits/worker/messages';
+import { replyError, type FitDone, type FitReply, type FitRequest } from '../fits/worker/messages';
 
 /** A fit the pane started: its result, and how to stop it. */
 export interface RunningFit {
@@ -68,7 +68,7 @@ export class FitRunner {
         settle.resolve(m);
       } else if (m.type === 'error') {
         cleanup();
-        settle.reject(new RemapError(m.message, m.kind === 'num' || m.kind === 'na' || m.kind === 'cancelled' ? m.kind : 'value'));
+        settle.reject(replyError(m));
       }
     };
     const onError = (ev: ErrorEvent) => {

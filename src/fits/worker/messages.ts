@@ -1,3 +1,4 @@
+import { RemapError } from '../../engine/errors';
 import type { Diagnostics, Progress } from '../../engine/map';
 import type { Sample } from '../../engine/points';
 
@@ -92,3 +93,12 @@ export type FitReply =
   | SampleFitDone
   | MappedPoints
   | { readonly type: 'error'; readonly id: number; readonly message: string; readonly kind: string };
+
+/**
+ * The RemapError a worker's error reply stands for: its message, and its kind where the kind is one a worksheet error
+ * tells apart (num, na, cancelled), else value. O(1).
+ * @example replyError({ type: 'error', id: 1, message: 'x', kind: 'num' }).kind // 'num'
+ */
+export function replyError(m: { readonly message: string; readonly kind: string }): RemapError {
+  return new RemapError(m.message, m.kind === 'num' || m.kind === 'na' || m.kind === 'cancelled' ? m.kind : 'value');
+}

@@ -4,7 +4,7 @@ import { parseMapJSON } from '../../engine/map-json';
 import { restoreMap } from '../../engine/methods';
 import type { Sample } from '../../engine/points';
 import type { Fitter } from '../fit-service';
-import type { FitReply, SampleFitRequest } from './messages';
+import { replyError, type FitReply, type SampleFitRequest } from './messages';
 import { pageWorkers, type PageWorkers, type WorkerLike } from './page-workers';
 
 export type { WorkerLike } from './page-workers';
@@ -105,7 +105,7 @@ export function workerFitter(options: WorkerFitterOptions): Fitter {
         }
         if (m.type === 'error') {
           finish(true);
-          reject(new RemapError(m.message, m.kind === 'num' || m.kind === 'na' || m.kind === 'cancelled' ? m.kind : 'value'));
+          reject(replyError(m));
         }
       };
       const onError = (ev: ErrorEvent): void => {

@@ -1,8 +1,7 @@
-import { RemapError } from '../../engine/errors';
 import type { Mapped, TransportMap } from '../../engine/map';
 import type { Points } from '../../engine/points';
 import { mapInThisThread, type Mapper } from '../map-service';
-import type { FitReply, MapPointsRequest } from './messages';
+import { replyError, type FitReply, type MapPointsRequest } from './messages';
 import type { PageWorkers, WorkerLike } from './page-workers';
 
 /**
@@ -59,7 +58,7 @@ export function workerMapper(options: WorkerMapperOptions): Mapper {
           resolve({ data: m.data, outside: m.outside });
         } else if (m.type === 'error') {
           finish(true);
-          reject(new RemapError(m.message, m.kind === 'num' || m.kind === 'na' || m.kind === 'cancelled' ? m.kind : 'value'));
+          reject(replyError(m));
         }
       };
       // (A rejected piece makes the caller map the whole call on the page; see inWorkers.)
