@@ -1,7 +1,6 @@
-import { RemapError } from '../errors';
 import type { Tails } from '../quantile/one-way-map';
-import { CumulativeWeights } from './cumulative-shares';
-import { knotUnits } from './knot-units';
+import { AtValues } from './at-values';
+import type { CumulativeWeights } from './cumulative-shares';
 
 /**
  * The quantile method's map under other weights, read only at a fixed set of
@@ -25,15 +24,7 @@ import { knotUnits } from './knot-units';
  * weight stepped over (O(1) on average for bootstrap counts); no allocation.
  * @example new QuantileAtValues(sx, ty, xs, order).map(cs, ct, 'clamp', out) // true; out = T(xs) put back in order
  */
-export class QuantileAtValues {
-  private readonly sx: Float64Array;
-  private readonly ty: Float64Array;
-  private readonly xs: Float64Array;
-  private readonly order: Uint32Array;
-  /** unit[r] = largest k with sx[k] <= xs[r] (-1 if none). */
-  private readonly unit: Int32Array;
-  private readonly S = new CumulativeWeights();
-  private readonly T = new CumulativeWeights();
+export class QuantileAtValues extends AtValues {
   // The cursor: a share s, the weighted source values i, iN around it (p(i) <= s < p(iN), -1 for none) and target values j, jN likewise.
   private s = 0;
   private i = 0;
@@ -45,34 +36,14 @@ export class QuantileAtValues {
   private ky = 0;
 
   /**
-   * @param sx,ty the distinct source and target values, ascending.
-   * @param xs the values to map, ascending; `order[r]` is where the result for xs[r] goes.
-   */
-  constructor(sx: Float64Array, ty: Float64Array, xs: Float64Array, order: Uint32Array) {
-    this.sx = sx;
-    this.ty = ty;
-    this.xs = xs;
-    this.order = order;
-    this.unit = knotUnits(sx, xs);
-  }
-
-  /**
    * Maps the values under the quantile map fitted with cumulative weights `cs`
    * (source) and `ct` (target), writing out[order[r]]. Returns false, having
    * written nothing reliable, when rounding could have merged knots.
    * @throws RemapError (as the refit would) when a side has no weight or a single weighted value.
    */
   map(cs: Float64Array, ct: Float64Array, tails: Tails, out: Float64Array): boolean {
-    const { sx, ty, xs, order, unit, S, T } = this;
-    S.reset(cs);
-    T.reset(ct);
-    if (!(S.total > 0) || !(T.total > 0)) throw new RemapError('bounds: a replicate gives no row a positive weight.');
-    const fs = S.after(-1);
-    const ls = S.atOrBefore(cs.length - 1);
-    const ft = T.after(-1);
-    const lt = T.atOrBefore(ct.length - 1);
-    if (fs === ls) throw single('source', sx[fs]);
-    if (ft === lt) throw single('target', ty[ft]);
+    this.start(cs, ct, 'a continuous map needs at least two different values on each side. Check the range, or use method linear.');
+    const { sx, xs, order, unit, S, T, fs, ls, ft, lt } = this;
     const pLo = Math.max(S.hazen(fs), T.hazen(ft));
     const pHi = Math.min(S.hazen(ls), T.hazen(lt));
     // The first two and the last two knots: the ends, and the slopes the linear tails continue.
@@ -243,11 +214,4 @@ function lastAtOrBelowFrom(w: CumulativeWeights, from: number, s: number): numbe
     else hi = mid;
   }
   return lo;
-}
-
-function single(side: string, value: number): RemapError {
-  return new RemapError(
-    `bounds: every ${side} row with positive weight holds the same value (${value}); a continuous map needs at least two different values on each side. Check the range, or use method linear.`,
-    'num',
-  );
 }

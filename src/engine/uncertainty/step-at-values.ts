@@ -1,8 +1,6 @@
-import { RemapError } from '../errors';
 import type { Tails } from '../quantile/one-way-map';
 import { SHARE_TOLERANCE } from '../quantile/step-table';
-import { CumulativeWeights } from './cumulative-shares';
-import { knotUnits } from './knot-units';
+import { AtValues } from './at-values';
 
 /**
  * The step method's map under other weights, read only at a fixed set of
@@ -18,55 +16,17 @@ import { knotUnits } from './knot-units';
  * Cost per call: O(v log K_t) for v values, plus the values without weight stepped over; no allocation.
  * @example new StepAtValues(sx, ty, xs, order).map(cs, ct, 'clamp', out) // out = T(xs) put back in order
  */
-export class StepAtValues {
-  private readonly sx: Float64Array;
-  private readonly ty: Float64Array;
-  private readonly xs: Float64Array;
-  private readonly order: Uint32Array;
-  /** unit[r] = largest k with sx[k] <= xs[r] (-1 if none). */
-  private readonly unit: Int32Array;
-  private readonly S = new CumulativeWeights();
-  private readonly T = new CumulativeWeights();
-
-  /**
-   * @param sx,ty the distinct source and target values, ascending.
-   * @param xs the values to map, ascending; `order[r]` is where the result for xs[r] goes.
-   */
-  constructor(sx: Float64Array, ty: Float64Array, xs: Float64Array, order: Uint32Array) {
-    this.sx = sx;
-    this.ty = ty;
-    this.xs = xs;
-    this.order = order;
-    this.unit = knotUnits(sx, xs);
-  }
-
+export class StepAtValues extends AtValues {
   /**
    * Maps the values under the step map fitted with cumulative weights `cs`
    * (source) and `ct` (target), writing out[order[r]].
    * @throws RemapError (as the refit would) when a side has no weight or a single weighted value.
    */
   map(cs: Float64Array, ct: Float64Array, tails: Tails, out: Float64Array): void {
-    const { sx, ty, xs, order, unit, S, T } = this;
-    S.reset(cs);
-    T.reset(ct);
+    this.start(cs, ct, 'the step map needs at least two different values on each side. Check the range.');
+    const { sx, ty, xs, order, unit, S, T, fs, ls, lt } = this;
     const W = S.total;
     const M = T.total;
-    if (!(W > 0) || !(M > 0)) throw new RemapError('bounds: a replicate gives no row a positive weight.');
-    const fs = S.after(-1);
-    const ls = S.atOrBefore(cs.length - 1);
-    const ft = T.after(-1);
-    const lt = T.atOrBefore(ct.length - 1);
-    for (const [a, b, v, side] of [
-      [fs, ls, sx, 'source'],
-      [ft, lt, ty, 'target'],
-    ] as const) {
-      if (a === b) {
-        throw new RemapError(
-          `bounds: every ${side} row with positive weight holds the same value (${v[a]}); the step map needs at least two different values on each side. Check the range.`,
-          'num',
-        );
-      }
-    }
     /** The table entry of weighted source value k: stepTable's walk, as a binary search. */
     const entry = (k: number): number => {
       const limit = cs[k] / W - SHARE_TOLERANCE;
