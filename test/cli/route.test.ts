@@ -53,7 +53,7 @@ describe('fit from summaries computed by SQL', () => {
     const fromRows = (await fitMap('linear', sample(S), sample(T))).toJSON().params as Record<string, number[]>;
     for (const f of ['matrix', 'mean1', 'mean2'] as const) {
       const scale = Math.max(...fromRows[f].map(Math.abs));
-      // Source: the task's acceptance bound (1e-12, relative to the largest entry).
+      // Source: design choice: within 1e-12, relative to the largest entry.
       fromRows[f].forEach((v, i) => expect(Math.abs(fromSummary[f][i] - v)).toBeLessThan(1e-12 * scale));
     }
   });

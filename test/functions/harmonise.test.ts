@@ -51,7 +51,7 @@ describe('REMAP.BYGROUP, FITGROUPS, APPLYGROUPS, GROUPREPORT', () => {
   });
 
   test('by group equals fitting each group on its own with REMAP.VALUES and stacking the results, with weights, for quantile, step and ordinal', () => {
-    // Source: issue contract (a grouped map is each group's own map); the per-group maps come from REMAP.VALUES on the group's rows alone
+    // Source: design choice (a grouped map is each group's own map); the per-group maps come from REMAP.VALUES on the group's rows alone
     const rnd = lcg(11);
     const n = 90;
     const groupsOf = (i: number) => ['north', 'south', 'east'][i % 3];
@@ -105,7 +105,7 @@ describe('REMAP.BYGROUP, FITGROUPS, APPLYGROUPS, GROUPREPORT', () => {
   });
 
   test('a group of the values with no rows is an error naming it, unless the pooled fallback stands in (as REMAP.VALUES on all rows)', () => {
-    // Source: issue contract for groups lacking rows; the pooled map is the map of all rows (REMAP.VALUES on the whole samples)
+    // Source: design choice for groups lacking rows; the pooled map is the map of all rows (REMAP.VALUES on the whole samples)
     const e = sheetError(() => F.bygroup(col([2]), col(['west']), source, sGroups, target, tGroups));
     expect(e.code).toBe('#VALUE!');
     expect(e.message).toContain('"west"');
@@ -165,7 +165,7 @@ describe('REMAP.TOTABLE', () => {
   });
 
   test('a frequency table of scores gives the same result as the scores written out row by row', () => {
-    // Source: issue contract (a frequency table is its values written out); the written-out map is REMAP.VALUES
+    // Source: design choice (a frequency table is its values written out); the written-out map is REMAP.VALUES
     const scores = [0, 1, 2, 3, 4, 5];
     const counts = [3, 5, 9, 7, 4, 2];
     const written = scores.flatMap((v, k) => new Array(counts[k]).fill(v));
